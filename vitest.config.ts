@@ -1,0 +1,11 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  test: {
+    include: ['test/**/*.test.ts'],
+    // Screening tests spawn worker threads and SQLite files; keep files in separate forks.
+    pool: 'forks',
+    testTimeout: 120_000,
+    hookTimeout: 120_000,
+  },
+});
