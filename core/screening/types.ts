@@ -43,6 +43,8 @@ export interface Encounter {
   /** epochs of the element sets (or ephemeris) used */
   readonly primaryEpoch: Instant;
   readonly secondaryEpoch: Instant;
+  /** true when the minimum lies on an edge of the screening window (TCA outside it) */
+  readonly atWindowEdge?: boolean;
 }
 
 /** Risk assessment of one encounter (issue 3/6 fills these). */

@@ -1,0 +1,110 @@
+import type { ElementSet } from '../elements/elementSet.js';
+import { objectFromElements, ScreeningSession, type ScreeningObject, type WindowSettings } from './engine.js';
+import { StateGrid } from './primaryGrid.js';
+import type { Encounter, FlaggedObject } from './types.js';
+
+/** Shared control block: [0] cancel flag, [1] units of work done (all workers together). */
+export const CTRL_CANCEL = 0;
+export const CTRL_DONE = 1;
+
+/** Where each primary's grid lives inside the shared grid buffer. */
+export interface GridLayout {
+  readonly id: string;
+  readonly offset: number; // in doubles
+  readonly count: number;
+  readonly stepMs: number;
+  readonly vMaxKmS: number;
+}
+
+export interface ChunkResult {
+  encounters: Encounter[];
+  flagged: FlaggedObject[];
+  stats: Record<string, number>;
+  cancelled: boolean;
+}
+
+/**
+ * The work one thread does: owns the objects it was given, reads primary grids from shared
+ * memory, screens its share of secondaries. Used by the worker and, with workers = 0, in-process.
+ */
+export class ScreeningChunk {
+  private readonly objects: ScreeningObject[];
+  private readonly byId = new Map<string, number>();
+  private readonly session: ScreeningSession;
+  private grids = new Map<string, StateGrid>();
+
+  constructor(
+    elementSets: readonly ElementSet[],
+    readonly settings: WindowSettings,
+    private readonly control: Int32Array,
+  ) {
+    this.objects = elementSets.map(objectFromElements);
+    this.objects.forEach((o, i) => this.byId.set(o.id, i));
+    this.session = new ScreeningSession(settings);
+  }
+
+  /** Computes grids of the given primaries into the shared buffer; returns their layout. */
+  buildGrids(layout: readonly { id: string; offset: number; count: number; stepMs: number }[], shared: Float64Array): GridLayout[] {
+    const out: GridLayout[] = [];
+    for (const l of layout) {
+      const o = this.objects[this.byId.get(l.id)!]!;
+      const g = this.session.grid(o, shared.subarray(l.offset, l.offset + l.count * 6));
+      out.push({ ...l, vMaxKmS: g ? g.vMaxKmS : -1 });
+    }
+    return out;
+  }
+
+  attachGrids(layout: readonly GridLayout[], shared: Float64Array): void {
+    this.grids = new Map();
+    for (const l of layout) {
+      if (l.vMaxKmS < 0) continue; // that primary failed to propagate (flagged where built)
+      const states = shared.subarray(l.offset, l.offset + l.count * 6);
+      this.grids.set(l.id, new StateGrid(this.settings.start, l.stepMs, l.count, states, l.vMaxKmS));
+    }
+  }
+
+  /**
+   * Screens primaries (with attached grids) against secondaries whose index ≡ part (mod parts).
+   * With `pairsOnce`, a pair of two primaries is screened only from the lower index.
+   */
+  screenShared(primaryIds: readonly string[], part: number, parts: number): ChunkResult {
+    const out: Encounter[] = [];
+    const prim = primaryIds
+      .map((id) => ({ o: this.objects[this.byId.get(id)!]!, g: this.grids.get(id) }))
+      .filter((x): x is { o: ScreeningObject; g: StateGrid } => x.g !== undefined);
+    const primSet = new Set(primaryIds);
+    const primIndex = new Map(primaryIds.map((id, i) => [id, i]));
+    for (let i = part; i < this.objects.length; i += parts) {
+      if (Atomics.load(this.control, CTRL_CANCEL)) return this.result(out, true);
+      const s = this.objects[i]!;
+      for (const { o: p, g } of prim) {
+        // A pair of two primaries is screened once, from the primary listed first.
+        if (primSet.has(s.id) && primIndex.get(s.id)! <= primIndex.get(p.id)!) continue;
+        for (const e of this.session.screenPair(p, g, s)) out.push(e);
+      }
+      Atomics.add(this.control, CTRL_DONE, 1);
+    }
+    return this.result(out, false);
+  }
+
+  /** All-vs-all: primaries ≡ part (mod parts), each against every object of higher index. */
+  screenAllPairs(part: number, parts: number): ChunkResult {
+    const out: Encounter[] = [];
+    for (let i = part; i < this.objects.length; i += parts) {
+      if (Atomics.load(this.control, CTRL_CANCEL)) return this.result(out, true);
+      const p = this.objects[i]!;
+      const g = this.session.grid(p);
+      if (g) {
+        for (let j = i + 1; j < this.objects.length; j++) {
+          for (const e of this.session.screenPair(p, g, this.objects[j]!)) out.push(e);
+        }
+      }
+      Atomics.add(this.control, CTRL_DONE, 1);
+    }
+    return this.result(out, false);
+  }
+
+  private result(encounters: Encounter[], cancelled: boolean): ChunkResult {
+    return { encounters, flagged: this.session.flaggedList(), stats: { ...this.session.stats }, cancelled };
+  }
+}

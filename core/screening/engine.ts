@@ -1,0 +1,196 @@
+import type { Instant } from '../time/instant.js';
+import type { ElementSet } from '../elements/elementSet.js';
+import type { FailureReason, Trajectory } from '../propagation/trajectory.js';
+import { Sgp4Trajectory } from '../propagation/sgp4.js';
+import { buildSgp4Model, exactModel, type OrbitModel } from './orbitModel.js';
+import { buildStateGrid, gridStepMs, type StateGrid } from './primaryGrid.js';
+import { candidateRegions, type FilterStats, type Region } from './pairFilter.js';
+import { findEncounters, PropagationError } from './refine.js';
+import { volumeBoundKm } from './geometry.js';
+import { R_EARTH_WGS72 } from '../units.js';
+import type { Encounter, FlaggedObject, ScreeningVolume } from './types.js';
+
+/** Spacing of the sampled mean elements of the filter model (min): 12 h keeps ε honest (tested). */
+const MODEL_NODE_SPACING_MIN = 720;
+/** The filter model also covers this much outside the window, for the refinement margins (ms). */
+const MODEL_MARGIN_MS = 3_600_000;
+/** Padding of the element-set radius band (see coarseRadiusBand). */
+const COARSE_RADIUS_PAD_KM = 60;
+const COARSE_RADIUS_PAD_FRACTION = 0.01;
+/** Range-rate sampling step in refinement: ≤ 1/16 of the shorter period, at most 60 s. */
+const REFINE_MAX_STEP_MS = 60_000;
+
+/** One object taking part in a screening, whatever its trajectory source. */
+export interface ScreeningObject {
+  readonly id: string;
+  readonly trajectory: Trajectory;
+  /** epoch of the element set / ephemeris used */
+  readonly epoch: Instant;
+  /** orbital period (min), used to size grids and steps */
+  readonly periodMin: number;
+  /** speed bound (km/s) for sources without a mean-element model */
+  readonly vMaxKmS?: number;
+}
+
+export function objectFromElements(es: ElementSet): ScreeningObject {
+  return {
+    id: es.objectId,
+    trajectory: new Sgp4Trajectory(es),
+    epoch: es.epoch,
+    periodMin: 1440 / es.meanMotion,
+  };
+}
+
+export interface WindowSettings {
+  readonly start: Instant;
+  readonly end: Instant;
+  readonly volume: ScreeningVolume;
+}
+
+/** Per-worker state: filter models are built lazily and kept for the run. */
+export class ScreeningSession {
+  private readonly models = new Map<string, OrbitModel | FailureReason>();
+  readonly flagged = new Map<string, string>();
+  readonly stats: FilterStats & { pairs: number; radiusPruned: number; regions: number; sgp4Evaluations: number } = {
+    pairs: 0,
+    radiusPruned: 0,
+    regions: 0,
+    planeVisits: 0,
+    distanceVisits: 0,
+    sgp4Evaluations: 0,
+  };
+
+  constructor(readonly settings: WindowSettings) {}
+
+  model(o: ScreeningObject): OrbitModel | null {
+    let m = this.models.get(o.id);
+    if (m === undefined) {
+      const tr = o.trajectory;
+      if (tr instanceof Sgp4Trajectory) {
+        m = tr.initFailure ?? buildSgp4Model(
+          tr.satrec,
+          tr.epoch,
+          (this.settings.start - MODEL_MARGIN_MS) as Instant,
+          (this.settings.end + MODEL_MARGIN_MS) as Instant,
+          MODEL_NODE_SPACING_MIN,
+        );
+        this.stats.sgp4Evaluations += 2 * Math.ceil((this.settings.end - this.settings.start) / 60_000 / MODEL_NODE_SPACING_MIN) + 3;
+      } else {
+        m = exactModel(tr, o.vMaxKmS ?? 15);
+      }
+      this.models.set(o.id, m);
+    }
+    if (typeof m === 'string') {
+      this.flag(o.id, `propagation failed: ${m}`);
+      return null;
+    }
+    return m;
+  }
+
+  flag(id: string, reason: string): void {
+    if (!this.flagged.has(id)) this.flagged.set(id, reason);
+  }
+
+  flaggedList(): FlaggedObject[] {
+    return [...this.flagged].map(([id, reason]) => ({ id, reason }));
+  }
+
+  /** Exact grid of a primary (or null if it cannot be propagated over the window). */
+  grid(o: ScreeningObject, buffer?: Float64Array): StateGrid | null {
+    const g = buildStateGrid(o.trajectory, this.settings.start, this.settings.end, gridStepMs(o.periodMin), buffer);
+    if ('failure' in g) {
+      this.flag(o.id, `propagation failed: ${g.failure} at ${new Date(g.at).toISOString()}`);
+      return null;
+    }
+    this.stats.sgp4Evaluations += g.count;
+    return g;
+  }
+
+  /** All encounters of one primary (with its grid) and one secondary. */
+  screenPair(p: ScreeningObject, grid: StateGrid, s: ScreeningObject): Encounter[] {
+    if (p.id === s.id) return [];
+    this.stats.pairs++;
+    const d = volumeBoundKm(this.settings.volume);
+    // Cheap apogee/perigee test on the element sets before any model is built.
+    const bp = coarseRadiusBand(p), bs = coarseRadiusBand(s);
+    if (bp && bs && Math.max(bp[0], bs[0]) - Math.min(bp[1], bs[1]) > d) {
+      this.stats.radiusPruned++;
+      return [];
+    }
+    const ms = this.model(s);
+    if (!ms) return [];
+    const mp = this.model(p);
+    if (!mp) return [];
+    // Apogee/perigee filter (Hoots et al. 1984): the radius bands, padded by each model's
+    // error, must come within D of each other.
+    if (Math.max(mp.rMinKm, ms.rMinKm) - Math.min(mp.rMaxKm, ms.rMaxKm) > d) {
+      this.stats.radiusPruned++;
+      return [];
+    }
+    const { start, end } = this.settings;
+    const regions = candidateRegions(grid, ms, d, start, end, this.stats);
+    if (regions.length === 0) return [];
+    const minPeriodMs = Math.min(p.periodMin, s.periodMin) * 60_000;
+    const step = Math.min(REFINE_MAX_STEP_MS, minPeriodMs / 16);
+    const merged = expandAndMerge(regions, step, start, end);
+    this.stats.regions += merged.length;
+    const ctx = {
+      p: p.trajectory,
+      s: s.trajectory,
+      primaryEpoch: p.epoch,
+      secondaryEpoch: s.epoch,
+      volume: this.settings.volume,
+      start,
+      end,
+    };
+    const out: Encounter[] = [];
+    try {
+      for (const [a, b] of merged) {
+        const found = findEncounters(ctx, a, b, step);
+        this.stats.sgp4Evaluations += 2 * (Math.ceil((b - a) / step) + 30 * found.length);
+        for (const e of found) {
+          // Neighbouring regions can meet at one minimum; keep it once.
+          if (!out.some((x) => Math.abs(x.tca - e.tca) < 1)) out.push(e);
+        }
+      }
+    } catch (err) {
+      if (err instanceof PropagationError) {
+        this.flag(err.objectId, `propagation failed: ${err.reason} at ${new Date(err.at).toISOString()}`);
+        return out;
+      }
+      throw err;
+    }
+    return out;
+  }
+}
+
+/**
+ * Radius band of an SGP4 object from its initialised mean elements, padded so that no
+ * osculating radius during a screening week can fall outside: 60 km covers SGP4's short-period
+ * J2 terms (≤ ~20 km measured in LEO, see orbitModel) plus a week of drag decay at B* ≤ 0.01;
+ * 1 % of a covers lunar–solar changes of e for deep-space orbits (≤ ~1e-3 per week).
+ * Null for sources without elements.
+ */
+function coarseRadiusBand(o: ScreeningObject): [number, number] | null {
+  const tr = o.trajectory;
+  if (!(tr instanceof Sgp4Trajectory) || tr.initFailure) return null;
+  const a = tr.satrec.a * R_EARTH_WGS72;
+  const e = tr.satrec.ecco;
+  const pad = COARSE_RADIUS_PAD_KM + COARSE_RADIUS_PAD_FRACTION * a;
+  return [a * (1 - e) - pad, a * (1 + e) + pad];
+}
+
+/** Pads each region by one refinement step on both sides (so a minimum at a region edge is
+ *  bracketed), clips to the window and merges overlaps. */
+export function expandAndMerge(regions: Region[], pad: number, start: number, end: number): Region[] {
+  const sorted = regions
+    .map(([a, b]) => [Math.max(start, a - pad), Math.min(end, b + pad)] as Region)
+    .sort((x, y) => x[0] - y[0]);
+  const out: Region[] = [];
+  for (const r of sorted) {
+    const last = out[out.length - 1];
+    if (last && r[0] <= last[1]) last[1] = Math.max(last[1], r[1]);
+    else out.push([r[0], r[1]]);
+  }
+  return out;
+}

@@ -1,0 +1,232 @@
+import { sgp4, type SatRec } from 'satellite.js';
+import type { Instant } from '../time/instant.js';
+import type { FailureReason } from '../propagation/trajectory.js';
+import { reasonForSgp4Code } from '../propagation/sgp4.js';
+import { R_EARTH_WGS72 } from '../units.js';
+
+const TWO_PI = 2 * Math.PI;
+const MS_PER_MIN = 60_000;
+/**
+ * Safety on the measured model error: the periodic terms SGP4 adds to its mean elements vary
+ * with twice the argument of latitude; ≥ 40 samples at incommensurate phases see at least
+ * ~2/3 of their peak with overwhelming probability, so 1.5× covers the unseen peak.
+ */
+const EPS_SAFETY = 1.5;
+/** Floor added to the measured error (km): covers rounding and unsampled interpolation error. */
+const EPS_FLOOR_KM = 2;
+
+/**
+ * A cheap stand-in for SGP4 used only to dismiss pairs: SGP4's own mean elements sampled at
+ * uniform nodes, interpolated (cubic Lagrange through 4 nodes, angles unwrapped) and turned
+ * into a Keplerian position. `epsKm` bounds |model − SGP4| over the span (measured at every
+ * node and every mid-node, then padded); filters add it to their distance thresholds.
+ */
+export interface OrbitModel {
+  readonly epsKm: number;
+  /** false when the source has no mean orbit plane (then normalInto is meaningless) */
+  readonly hasPlane: boolean;
+  /** Bounds of the osculating radius over the span (km), padded by epsKm. */
+  readonly rMinKm: number;
+  readonly rMaxKm: number;
+  /** Upper bound of the speed (km/s) over the span. */
+  readonly vMaxKmS: number;
+  /** Writes the approximate TEME position (km) at t into out[off..off+2]. */
+  positionInto(t: Instant, out: Float64Array, off: number): void;
+  /** Unit normal of the mean orbit plane at t. */
+  normalInto(t: Instant, out: Float64Array, off: number): void;
+}
+
+const N_EL = 6; // a(km), e, i, Ω, ω, M — all unwrapped
+
+export function buildSgp4Model(
+  satrec: SatRec,
+  epoch: Instant,
+  start: Instant,
+  end: Instant,
+  nodeSpacingMin: number,
+): OrbitModel | FailureReason {
+  const spanMin = (end - start) / MS_PER_MIN;
+  const nIntervals = Math.max(3, Math.ceil(spanMin / nodeSpacingMin));
+  const stepMin = spanMin / nIntervals;
+  const nNodes = nIntervals + 1;
+  const t0Min = (start - epoch) / MS_PER_MIN; // minutes since epoch of node 0
+  const el = new Float64Array(nNodes * N_EL);
+  const pos = new Float64Array(nNodes * 3);
+  let vMax = 0;
+  for (let k = 0; k < nNodes; k++) {
+    const pv = sgp4(satrec, t0Min + k * stepMin);
+    if (!pv) return reasonForSgp4Code(satrec.error);
+    const me = pv.meanElements;
+    const o = k * N_EL;
+    el[o] = me.am * R_EARTH_WGS72;
+    el[o + 1] = me.em;
+    el[o + 2] = me.im;
+    el[o + 3] = me.Om;
+    el[o + 4] = me.om;
+    el[o + 5] = me.mm;
+    if (k > 0) {
+      const p = o - N_EL;
+      el[o + 3] = unwrapNear(el[o + 3]!, el[p + 3]!);
+      el[o + 4] = unwrapNear(el[o + 4]!, el[p + 4]!);
+      // Mean anomaly advances many revolutions between nodes: predict with the mean motion.
+      const predicted = el[p + 5]! + me.nm * stepMin;
+      el[o + 5] = unwrapNear(el[o + 5]!, predicted);
+    }
+    pos[k * 3] = pv.position.x;
+    pos[k * 3 + 1] = pv.position.y;
+    pos[k * 3 + 2] = pv.position.z;
+    vMax = Math.max(vMax, Math.hypot(pv.velocity.x, pv.velocity.y, pv.velocity.z));
+  }
+  const model = new KeplerModel(start, stepMin * MS_PER_MIN, nNodes, el);
+  // Measure |model − SGP4| at nodes and mid-nodes.
+  const buf = new Float64Array(3);
+  let err = 0;
+  for (let k = 0; k < nNodes; k++) {
+    model.positionInto((start + k * stepMin * MS_PER_MIN) as Instant, buf, 0);
+    err = Math.max(err, Math.hypot(buf[0]! - pos[k * 3]!, buf[1]! - pos[k * 3 + 1]!, buf[2]! - pos[k * 3 + 2]!));
+  }
+  for (let k = 0; k < nIntervals; k++) {
+    const tm = t0Min + (k + 0.5) * stepMin;
+    const pv = sgp4(satrec, tm);
+    if (!pv) return reasonForSgp4Code(satrec.error);
+    model.positionInto((start + (k + 0.5) * stepMin * MS_PER_MIN) as Instant, buf, 0);
+    err = Math.max(err, Math.hypot(buf[0]! - pv.position.x, buf[1]! - pv.position.y, buf[2]! - pv.position.z));
+    vMax = Math.max(vMax, Math.hypot(pv.velocity.x, pv.velocity.y, pv.velocity.z));
+  }
+  const eps = err * EPS_SAFETY + EPS_FLOOR_KM;
+  let rMin = Infinity, rMax = 0, vBound = 0;
+  for (let k = 0; k < nNodes; k++) {
+    const a = el[k * N_EL]!, e = el[k * N_EL + 1]!;
+    rMin = Math.min(rMin, a * (1 - e));
+    rMax = Math.max(rMax, a * (1 + e));
+    // vis-viva at perigee, WGS-72 μ, as a speed bound of the mean orbit
+    vBound = Math.max(vBound, Math.sqrt((398600.8 / a) * ((1 + e) / (1 - e))));
+  }
+  model.finish(eps, rMin - eps, rMax + eps, Math.max(vMax, vBound) * 1.02 + 0.05);
+  return model;
+}
+
+function unwrapNear(x: number, ref: number): number {
+  return x + TWO_PI * Math.round((ref - x) / TWO_PI);
+}
+
+class KeplerModel implements OrbitModel {
+  readonly hasPlane = true;
+  epsKm = 0;
+  rMinKm = 0;
+  rMaxKm = Infinity;
+  vMaxKmS = Infinity;
+  private readonly el: Float64Array;
+  private readonly w = new Float64Array(4);
+
+  constructor(
+    private readonly start: number,
+    private readonly stepMs: number,
+    private readonly nNodes: number,
+    el: Float64Array,
+  ) {
+    this.el = el;
+  }
+
+  finish(eps: number, rMin: number, rMax: number, vMax: number): void {
+    this.epsKm = eps;
+    this.rMinKm = rMin;
+    this.rMaxKm = rMax;
+    this.vMaxKmS = vMax;
+  }
+
+  /** Cubic Lagrange weights over 4 nodes around t; returns the first node index. */
+  private weights(t: number): number {
+    const x = (t - this.start) / this.stepMs;
+    let k0 = Math.floor(x) - 1;
+    if (k0 < 0) k0 = 0;
+    if (k0 > this.nNodes - 4) k0 = this.nNodes - 4;
+    const u = x - k0; // position relative to node k0, nodes at 0,1,2,3
+    const w = this.w;
+    w[0] = (-(u - 1) * (u - 2) * (u - 3)) / 6;
+    w[1] = (u * (u - 2) * (u - 3)) / 2;
+    w[2] = (-u * (u - 1) * (u - 3)) / 2;
+    w[3] = (u * (u - 1) * (u - 2)) / 6;
+    return k0;
+  }
+
+  private elem(k0: number, j: number): number {
+    const el = this.el, w = this.w;
+    return (
+      w[0]! * el[k0 * N_EL + j]! +
+      w[1]! * el[(k0 + 1) * N_EL + j]! +
+      w[2]! * el[(k0 + 2) * N_EL + j]! +
+      w[3]! * el[(k0 + 3) * N_EL + j]!
+    );
+  }
+
+  positionInto(t: Instant, out: Float64Array, off: number): void {
+    const k0 = this.weights(t);
+    const a = this.elem(k0, 0);
+    let e = this.elem(k0, 1);
+    if (e < 0) e = 0;
+    if (e > 0.999) e = 0.999;
+    const inc = this.elem(k0, 2), node = this.elem(k0, 3), argp = this.elem(k0, 4);
+    const M = this.elem(k0, 5) % TWO_PI;
+    // Kepler's equation by Newton's method from a starter good for e < 0.99
+    let E = e < 0.8 ? M : Math.PI * Math.sign(M || 1);
+    for (let it = 0; it < 30; it++) {
+      const f = E - e * Math.sin(E) - M;
+      const d = f / (1 - e * Math.cos(E));
+      E -= d;
+      if (Math.abs(d) < 1e-12) break;
+    }
+    const xp = a * (Math.cos(E) - e);
+    const yp = a * Math.sqrt(1 - e * e) * Math.sin(E);
+    const cO = Math.cos(node), sO = Math.sin(node);
+    const ci = Math.cos(inc), si = Math.sin(inc);
+    const cw = Math.cos(argp), sw = Math.sin(argp);
+    // perifocal → inertial: R3(−Ω) R1(−i) R3(−ω)
+    const px = cO * cw - sO * sw * ci, qx = -cO * sw - sO * cw * ci;
+    const py = sO * cw + cO * sw * ci, qy = -sO * sw + cO * cw * ci;
+    const pz = sw * si, qz = cw * si;
+    out[off] = px * xp + qx * yp;
+    out[off + 1] = py * xp + qy * yp;
+    out[off + 2] = pz * xp + qz * yp;
+  }
+
+  normalInto(t: Instant, out: Float64Array, off: number): void {
+    const k0 = this.weights(t);
+    const inc = this.elem(k0, 2), node = this.elem(k0, 3);
+    const si = Math.sin(inc);
+    out[off] = si * Math.sin(node);
+    out[off + 1] = -si * Math.cos(node);
+    out[off + 2] = Math.cos(inc);
+  }
+}
+
+/**
+ * Filter model of a trajectory that has no mean elements (straight line, owner ephemeris):
+ * the exact positions (error 0) and no orbit plane, so only the distance bound filters it.
+ */
+export function exactModel(
+  traj: { stateInto(t: Instant, out: Float64Array, off: number): FailureReason | null },
+  vMaxKmS: number,
+): OrbitModel {
+  const buf = new Float64Array(6);
+  return {
+    epsKm: 0,
+    hasPlane: false,
+    rMinKm: 0,
+    rMaxKm: Infinity,
+    vMaxKmS,
+    positionInto(t, out, off) {
+      if (traj.stateInto(t, buf, 0)) {
+        // Unknown position: make the distance bound useless so nothing is pruned here.
+        out[off] = out[off + 1] = out[off + 2] = Number.NaN;
+        return;
+      }
+      out[off] = buf[0]!;
+      out[off + 1] = buf[1]!;
+      out[off + 2] = buf[2]!;
+    },
+    normalInto(_t, out, off) {
+      out[off] = out[off + 1] = out[off + 2] = Number.NaN;
+    },
+  };
+}

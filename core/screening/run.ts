@@ -1,0 +1,129 @@
+import { wrap, releaseProxy, type Remote } from 'comlink';
+import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
+import { availableParallelism } from 'node:os';
+import type { ElementSet } from '../elements/elementSet.js';
+import { KeepclearError } from '../errors.js';
+import { spawnTsWorker } from '../workers/spawn.js';
+import { CTRL_CANCEL, CTRL_DONE, ScreeningChunk, type ChunkResult, type GridLayout } from './chunk.js';
+import { gridPointCount, gridStepMs } from './primaryGrid.js';
+import type { WindowSettings } from './engine.js';
+import type { Encounter, FlaggedObject, ScreeningSettings } from './types.js';
+import type { ScreeningWorkerApi } from './worker.js';
+
+export interface RunOptions {
+  /** worker threads; 0 runs in this thread. Default: one per core. */
+  readonly workers?: number;
+  /** called about every 200 ms with units done / total (secondaries, or primaries for all-vs-all) */
+  readonly onProgress?: (done: number, total: number) => void;
+  readonly signal?: AbortSignal;
+}
+
+export interface ScreeningOutcome {
+  readonly encounters: Encounter[];
+  readonly flagged: FlaggedObject[];
+  readonly cancelled: boolean;
+  readonly stats: Record<string, number>;
+  readonly wallMs: number;
+}
+
+/**
+ * Screens element sets: fleet-vs-catalogue (primaries listed) or all-vs-all. The catalogue is
+ * split among worker threads by secondary (interleaved, for balance); primary ephemerides are
+ * computed once into shared memory. Results are sorted, so they do not depend on the worker count.
+ */
+export async function runScreening(
+  elementSets: readonly ElementSet[],
+  settings: ScreeningSettings,
+  options: RunOptions = {},
+): Promise<ScreeningOutcome> {
+  const t0 = performance.now();
+  if (!(settings.end > settings.start)) {
+    throw new KeepclearError('BAD_ARGUMENT', `screening window is empty: ${settings.start} to ${settings.end}`);
+  }
+  const ids = new Set(elementSets.map((e) => e.objectId));
+  const all = settings.primaries === 'all';
+  const primaries = all ? [] : [...new Set(settings.primaries as readonly string[])];
+  for (const p of primaries) {
+    if (!ids.has(p)) throw new KeepclearError('NOT_FOUND', `primary ${p} has no element set in the catalogue`);
+  }
+  const win: WindowSettings = { start: settings.start, end: settings.end, volume: settings.volume };
+  const nWorkers = options.workers ?? availableParallelism();
+  const control = new Int32Array(new SharedArrayBuffer(8));
+  const total = elementSets.length;
+
+  // Grid layout for the primaries, in one shared buffer.
+  const bySet = new Map(elementSets.map((e) => [e.objectId, e]));
+  let offset = 0;
+  const layout = primaries.map((id) => {
+    const stepMs = gridStepMs(1440 / bySet.get(id)!.meanMotion);
+    const count = gridPointCount(settings.start, settings.end, stepMs);
+    const l = { id, offset, count, stepMs };
+    offset += count * 6;
+    return l;
+  });
+  const gridBuffer = new SharedArrayBuffer(Math.max(8, offset * 8));
+
+  const onAbort = () => Atomics.store(control, CTRL_CANCEL, 1);
+  options.signal?.addEventListener('abort', onAbort);
+  const timer = options.onProgress
+    ? setInterval(() => options.onProgress!(Atomics.load(control, CTRL_DONE), total), 200)
+    : null;
+  try {
+    let results: ChunkResult[];
+    if (nWorkers <= 0) {
+      const chunk = new ScreeningChunk(elementSets, win, control);
+      if (all) results = [chunk.screenAllPairs(0, 1)];
+      else {
+        const built = chunk.buildGrids(layout, new Float64Array(gridBuffer));
+        chunk.attachGrids(built, new Float64Array(gridBuffer));
+        results = [chunk.screenShared(primaries, 0, 1)];
+      }
+    } else {
+      results = await inWorkers(nWorkers, elementSets, win, control, all, primaries, layout, gridBuffer);
+    }
+    options.onProgress?.(Atomics.load(control, CTRL_DONE), total);
+    return merge(results, performance.now() - t0);
+  } finally {
+    if (timer) clearInterval(timer);
+    options.signal?.removeEventListener('abort', onAbort);
+  }
+}
+
+async function inWorkers(
+  n: number,
+  elementSets: readonly ElementSet[],
+  win: WindowSettings,
+  control: Int32Array,
+  all: boolean,
+  primaries: string[],
+  layout: { id: string; offset: number; count: number; stepMs: number }[],
+  gridBuffer: SharedArrayBuffer,
+): Promise<ChunkResult[]> {
+  const workers = Array.from({ length: n }, () => spawnTsWorker(new URL('./worker.ts', import.meta.url)));
+  const apis: Remote<ScreeningWorkerApi>[] = workers.map((w) => wrap<ScreeningWorkerApi>(nodeEndpoint(w)));
+  try {
+    const sets = elementSets.map((e) => ({ ...e }));
+    await Promise.all(apis.map((a) => a.init(sets, win, control.buffer as SharedArrayBuffer)));
+    if (all) return await Promise.all(apis.map((a, i) => a.screenAllPairs(i, n)));
+    // Primary grids: split among workers, written into the shared buffer.
+    const parts = apis.map((_, i) => layout.filter((_, k) => k % n === i));
+    const built: GridLayout[] = (await Promise.all(apis.map((a, i) => a.buildGrids(parts[i]!, gridBuffer)))).flat();
+    await Promise.all(apis.map((a) => a.attachGrids(built, gridBuffer)));
+    // A primary whose grid failed was flagged by the worker that built it.
+    return await Promise.all(apis.map((a, i) => a.screenShared(primaries, i, n)));
+  } finally {
+    for (const a of apis) a[releaseProxy]();
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
+}
+
+function merge(results: ChunkResult[], wallMs: number): ScreeningOutcome {
+  const encounters = results.flatMap((r) => r.encounters);
+  encounters.sort((a, b) => a.tca - b.tca || a.primary.localeCompare(b.primary) || a.secondary.localeCompare(b.secondary));
+  const flaggedMap = new Map<string, string>();
+  for (const r of results) for (const f of r.flagged) if (!flaggedMap.has(f.id)) flaggedMap.set(f.id, f.reason);
+  const flagged = [...flaggedMap].map(([id, reason]) => ({ id, reason })).sort((a, b) => a.id.localeCompare(b.id));
+  const stats: Record<string, number> = {};
+  for (const r of results) for (const [k, v] of Object.entries(r.stats)) stats[k] = (stats[k] ?? 0) + v;
+  return { encounters, flagged, cancelled: results.some((r) => r.cancelled), stats, wallMs };
+}
