@@ -1,0 +1,127 @@
+import type { ElementSet } from '../elements/elementSet.js';
+import { KeepclearError } from '../errors.js';
+import type { Matrix } from '../math/linalg.js';
+import type { Encounter, RiskAssessment, StateArray } from '../screening/types.js';
+import { MS_PER_DAY, type Instant } from '../time/instant.js';
+import { covarianceFromCdm } from './covarianceCdm.js';
+import { defaultCovariance, regimeOf } from './covarianceDefault.js';
+import { covarianceFromHistory } from './covarianceHistory.js';
+import { checkCovariance } from './covariancePsd.js';
+import type { Regime } from './defaultCovarianceTable.js';
+import { encounterPlane } from './encounterPlane.js';
+import { rtnBasis, rtnToInertialCov } from './frames.js';
+import { combinedHbr } from './hardBody.js';
+import { pc2dFast } from './pc2dFast.js';
+import { pc2dReference } from './pc2dReference.js';
+import { pcMax } from './pcMax.js';
+import { checkShortEncounter } from './shortEncounter.js';
+import { DEFAULT_TIER_THRESHOLDS, tierFor, type TierThresholds } from './tiers.js';
+
+/** Shown wherever a Pc or tier could inform a manoeuvre decision. */
+export const DECISION_AID_NOTE =
+  'Keepclear results are a decision aid only. Defer to the screening provider\'s conjunction ' +
+  'messages, your licensed operating practice and local rules before deciding on any manoeuvre.';
+
+/** What is known about one object's position uncertainty at TCA; used in this order. */
+export interface CovarianceInput {
+  /** covariance from a received CDM at TCA, RTN (CDM order R, T, N, …), 6×6 or 3×3, m² */
+  readonly cdmRtnM2?: Matrix | null;
+  /** the object's element sets, ascending epochs, newest last */
+  readonly history?: readonly ElementSet[] | null;
+  /** the element set used for the encounter (gives regime and age for the default table) */
+  readonly elements?: ElementSet | null;
+  /** regime when no element set is at hand (e.g. an ephemeris object) */
+  readonly regime?: Regime | null;
+}
+
+export interface AssessInputs {
+  readonly primary: CovarianceInput;
+  readonly secondary: CovarianceInput;
+  readonly hbrPrimaryM?: number | null;
+  readonly hbrSecondaryM?: number | null;
+  readonly thresholds?: Partial<TierThresholds>;
+  /** '2d-reference' (default) or '2d-fast' */
+  readonly method?: 'reference' | 'fast';
+}
+
+interface Resolved {
+  readonly inertialM2: Matrix | null;
+  readonly source: string;
+  readonly doubtful: boolean;
+  readonly notes: readonly string[];
+}
+
+function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch: Instant, label: string): Resolved {
+  const basis = rtnBasis([state[0], state[1], state[2]], [state[3], state[4], state[5]]);
+  const graded = (rtn: Matrix, source: string): Resolved => {
+    const c = checkCovariance(rtn, `${label} ${source}`);
+    return {
+      inertialM2: c.status === 'doubtful' ? null : rtnToInertialCov(c.matrix, basis),
+      source,
+      doubtful: c.status === 'doubtful',
+      notes: c.note ? [c.note] : [],
+    };
+  };
+  if (input.cdmRtnM2) return graded(covarianceFromCdm(input.cdmRtnM2, state).rtnM2, 'cdm');
+  if (input.history) {
+    const h = covarianceFromHistory(input.history, tca);
+    if (h) return graded(h.rtnM2, h.source);
+  }
+  const regime = input.regime ?? (input.elements ? regimeOf(input.elements) : null);
+  if (regime) {
+    const d = defaultCovariance(regime, (tca - (input.elements?.epoch ?? epoch)) / MS_PER_DAY);
+    return graded(d.rtnM2, d.source);
+  }
+  return { inertialM2: null, source: 'none', doubtful: false, notes: [`${label}: no covariance available`] };
+}
+
+/**
+ * Risk of one encounter. Covariance per object: CDM → element-set history → default table.
+ * With both covariances usable: short-encounter 2-D Pc. When a covariance is missing or
+ * "doubtful" (non-finite, asymmetric, or indefinite beyond rounding — see covariancePsd.ts; or
+ * the projected 2×2 is singular): maximum Pc over an isotropic covariance of unknown size
+ * (Alfano 2005), which is an upper bound and says so in pcMethod.
+ */
+export function assessEncounter(encounter: Encounter, inputs: AssessInputs): RiskAssessment {
+  const thresholds = { ...DEFAULT_TIER_THRESHOLDS, ...inputs.thresholds };
+  const hbr = combinedHbr(inputs.hbrPrimaryM, inputs.hbrSecondaryM);
+  const p = resolve(inputs.primary, encounter.primaryState, encounter.tca, encounter.primaryEpoch, 'primary');
+  const s = resolve(inputs.secondary, encounter.secondaryState, encounter.tca, encounter.secondaryEpoch, 'secondary');
+  const warnings: string[] = [...p.notes, ...s.notes];
+  if (hbr.note) warnings.push(hbr.note);
+  const covarianceSource = `${p.source} / ${s.source}`;
+  const done = (pc: number | null, pcMethod: string): RiskAssessment => ({
+    pc,
+    pcMethod,
+    covarianceSource,
+    hardBodyRadiusM: hbr.radiusM,
+    tier: tierFor(pc, encounter.missKm, thresholds),
+    warnings,
+  });
+  const zero: Matrix = [[0, 0, 0], [0, 0, 0], [0, 0, 0]];
+  let plane;
+  try {
+    plane = encounterPlane(encounter.primaryState, encounter.secondaryState, p.inertialM2 ?? zero, s.inertialM2 ?? zero);
+  } catch (e) {
+    if (!(e instanceof KeepclearError)) throw e;
+    warnings.push(`no Pc: ${e.message}`);
+    return done(null, 'none');
+  }
+  const maxPc = (why: string): RiskAssessment => {
+    warnings.push(`maximum Pc used (${why}): an upper bound over all covariance sizes, not an estimate`);
+    return done(pcMax(plane.missM, null, hbr.radiusM).pc, `max-pc (${why})`);
+  };
+  if (!p.inertialM2 || !s.inertialM2) return maxPc(p.doubtful || s.doubtful ? 'doubtful covariance' : 'no covariance');
+  warnings.push(
+    ...checkShortEncounter(encounter.primaryState, encounter.secondaryState, plane.relVelMps, plane.combinedCovM2, hbr.radiusM)
+      .warnings,
+  );
+  try {
+    if (inputs.method === 'fast') return done(pc2dFast(plane.missM, plane.covM2, hbr.radiusM), '2d-fast');
+    return done(pc2dReference(plane.missM, plane.covM2, hbr.radiusM), '2d-reference');
+  } catch (e) {
+    if (!(e instanceof KeepclearError)) throw e;
+    warnings.push(e.message);
+    return maxPc('doubtful covariance');
+  }
+}

@@ -1,0 +1,84 @@
+import { describe, expect, it } from 'vitest';
+import { assessEncounter, DECISION_AID_NOTE } from '../core/risk/assess.js';
+import { cdmRtnFromLowerTriangle } from '../core/risk/covarianceCdm.js';
+import { DEFAULT_HBR_PER_OBJECT_M, hbrFromAreaM, combinedHbr } from '../core/risk/hardBody.js';
+import { pcMax } from '../core/risk/pcMax.js';
+import { TIERS, tierFor } from '../core/risk/tiers.js';
+import type { Encounter } from '../core/screening/types.js';
+import { parseIso } from '../core/time/instant.js';
+
+const tca = parseIso('2026-03-02T12:00:00Z')!;
+// Head-on-ish LEO geometry: primary +y, secondary +z, 200 m apart along x (miss 200 m).
+const encounter: Encounter = {
+  primary: '1', secondary: '2', tca, missKm: 0.2, relativeSpeedKmS: 10.6, rtnKm: [0.2, 0, 0], approachAngleDeg: 90,
+  entry: null, exit: null,
+  primaryState: [7000, 0, 0, 0, 7.5, 0],
+  secondaryState: [7000.2, 0, 0, 0, 0, 7.5],
+  primaryEpoch: parseIso('2026-03-01T12:00:00Z')!,
+  secondaryEpoch: parseIso('2026-03-01T12:00:00Z')!,
+};
+const diagCdm = (r: number, t: number, n: number) =>
+  cdmRtnFromLowerTriangle([r * r, 0, t * t, 0, 0, n * n, ...new Array<number>(15).fill(0)]);
+
+describe('hard-body radius', () => {
+  it('AREA_PC → √(A/π), sum of both, documented default', () => {
+    expect(hbrFromAreaM(Math.PI * 4)).toBeCloseTo(2, 12);
+    expect(combinedHbr(3, 4).radiusM).toBe(7);
+    expect(combinedHbr(undefined, 4).radiusM).toBe(DEFAULT_HBR_PER_OBJECT_M + 4);
+  });
+});
+
+describe('tiers (defaults: Pc 1e-4 / 1e-7, common practice per NASA/SP-20205011318, 2020)', () => {
+  it('grades by Pc, and by miss distance when Pc is null', () => {
+    expect(tierFor(2e-4, 10)).toBe('plan');
+    expect(tierFor(1e-5, 0.01)).toBe('monitor');
+    expect(tierFor(1e-9, 0.01)).toBe('routine');
+    expect(tierFor(null, 0.5)).toBe('plan');
+    expect(tierFor(null, 3)).toBe('monitor');
+    expect(tierFor(null, 50)).toBe('routine');
+    expect(tierFor(1e-5, 1, { pcPlan: 1e-5, pcMonitor: 1e-8, missPlanKm: 1, missMonitorKm: 5 })).toBe('plan');
+    expect(new Set(Object.values(TIERS).map((t) => t.colour)).size).toBe(3);
+  });
+  it('decision-aid caution text is present', () => {
+    expect(DECISION_AID_NOTE).toMatch(/decision aid/);
+    expect(DECISION_AID_NOTE).toMatch(/screening provider/);
+  });
+});
+
+describe('assessEncounter: covariance precedence and Pc method', () => {
+  it('CDM for the primary, default table for the secondary', () => {
+    const a = assessEncounter(encounter, {
+      primary: { cdmRtnM2: diagCdm(50, 200, 80), regime: 'LEO' },
+      secondary: { regime: 'LEO' },
+      hbrPrimaryM: 5, hbrSecondaryM: 5,
+    });
+    expect(a.pcMethod).toBe('2d-reference');
+    expect(a.covarianceSource).toBe('cdm / default(LEO, age 1.0 d)');
+    expect(a.hardBodyRadiusM).toBe(10);
+    expect(a.pc).toBeGreaterThan(0);
+    expect(a.pc).toBeLessThan(1);
+    expect(a.warnings).toHaveLength(0);
+  });
+  it('fast method on request gives the same Pc within its bound', () => {
+    const inputs = { primary: { cdmRtnM2: diagCdm(50, 200, 80) }, secondary: { cdmRtnM2: diagCdm(60, 300, 90) }, hbrPrimaryM: 5, hbrSecondaryM: 5 };
+    const ref = assessEncounter(encounter, inputs);
+    const fast = assessEncounter(encounter, { ...inputs, method: 'fast' });
+    expect(fast.pcMethod).toBe('2d-fast');
+    expect(Math.abs(fast.pc! / ref.pc! - 1)).toBeLessThan(1e-8);
+  });
+  it('no covariance at all: maximum Pc, isotropic, flagged as an upper bound', () => {
+    const a = assessEncounter(encounter, { primary: {}, secondary: { regime: 'LEO' }, hbrPrimaryM: 5, hbrSecondaryM: 5 });
+    expect(a.pcMethod).toBe('max-pc (no covariance)');
+    // R²/(e·d²) for R = 10 m, d = 200 m (Alfano 2005, small R/d) to leading order
+    expect(Math.abs(a.pc! / (100 / (Math.E * 40000)) - 1)).toBeLessThan(1e-2);
+    expect(a.pc).toBeCloseTo(pcMax([200, 0], null, 10).pc, 12);
+    expect(a.warnings.join(' ')).toMatch(/upper bound/);
+  });
+  it('doubtful CDM covariance (clearly indefinite) falls back to maximum Pc', () => {
+    const bad = cdmRtnFromLowerTriangle([100, 500, 100, 0, 0, 100, ...new Array<number>(15).fill(0)]);
+    const a = assessEncounter(encounter, { primary: { cdmRtnM2: bad }, secondary: { regime: 'LEO' } });
+    expect(a.pcMethod).toBe('max-pc (doubtful covariance)');
+    expect(a.warnings.join(' ')).toMatch(/indefinite/);
+    expect(a.warnings.join(' ')).toMatch(/hard-body radius default/);
+  });
+});
