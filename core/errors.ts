@@ -23,6 +23,7 @@ export type ErrorCode =
   | 'CDM_FIELD'
   | 'CDM_UNITS'
   | 'CDM_COVARIANCE'
+  | 'CDM_STRUCTURE'
   | 'OEM_FIELD'
   // propagation
   | 'PROPAGATION_FAILED'

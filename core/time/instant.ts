@@ -1,7 +1,7 @@
 /**
  * The one time type inside Keepclear: UTC milliseconds since 1970-01-01T00:00:00Z, as a double.
  *
- * Why a double of milliseconds: at 2026 a double near 1.8e12 ms resolves ~2.4e-4 µs, far below
+ * Why a double of milliseconds: at 2026 a double near 1.8e12 ms resolves ~2.4e-4 ms (0.24 µs), far below
  * the 1 ms TCA requirement. Precision is lost only where stated: TLE epochs carry 1e-8 day
  * (0.864 ms) and ISO text is printed to the millisecond.
  * Leap seconds: UTC milliseconds here, like JavaScript Date, ignore them; converting to TT/TAI

@@ -1,0 +1,41 @@
+/**
+ * Entry point for reading a CDM file whatever its syntax: KVN or XML is decided from the first
+ * significant character, so callers (import, tests) need not know which they hold.
+ */
+import { buildCdm, type CdmParseResult, type CdmReadOptions } from './cdm-build.js';
+import { CDM_KEYWORDS } from './cdm-keywords.js';
+import { parseCdmKvn } from './cdm-kvn.js';
+import { parseCdmXml } from './cdm-xml.js';
+
+export type { CdmParseResult, CdmReadOptions };
+export { buildCdm, parseCdmKvn, parseCdmXml };
+export { formatCdmKvn } from './cdm-write.js';
+export { hardBodyRadiusFromAreaPc } from './cdm-model.js';
+export type * from './cdm-model.js';
+
+const refuse = (code: 'NOT_TEXT' | 'FORMAT_UNKNOWN', file: string, line: number, reason: string): CdmParseResult =>
+  ({ cdm: null, errors: [{ code, file, line, reason }], repairs: [] });
+
+export function parseCdmFile(input: Uint8Array | string, file: string, opts: CdmReadOptions = {}): CdmParseResult {
+  let text: string;
+  if (typeof input === 'string') text = input;
+  else {
+    try {
+      text = new TextDecoder('utf-8', { fatal: true }).decode(input);
+    } catch {
+      return refuse('NOT_TEXT', file, 1, 'file is not UTF-8 text; a CDM is a text file (KVN or XML)');
+    }
+  }
+  const nul = text.indexOf('\0');
+  if (nul >= 0)
+    return refuse('NOT_TEXT', file, text.slice(0, nul).split('\n').length, 'file contains NUL bytes; a CDM is a text file (KVN or XML)');
+  const body = text.replace(/^\uFEFF/, '');
+  const start = body.trimStart();
+  if (start.startsWith('<')) return parseCdmXml(body, file, opts);
+  // Any CDM keyword first means KVN, even without the version line: the KVN reader then names
+  // what is missing instead of a vague "unknown format".
+  const firstKeyword = /^\s*([A-Z0-9_]+)\s*=/m.exec(body)?.[1];
+  if ((firstKeyword && CDM_KEYWORDS.has(firstKeyword)) || /^\s*COMMENT\b/.test(start)) return parseCdmKvn(body, file, opts);
+  return refuse('FORMAT_UNKNOWN', file, 1,
+    `not a CDM: expected "CCSDS_CDM_VERS = …" (KVN) or "<cdm …>" (XML) at the start${firstKeyword ? `, found ${firstKeyword}` : ''}`);
+}
