@@ -1,6 +1,10 @@
-import { json2satrec, sgp4, type SatRec } from 'satellite.js';
+import { jday, sgp4, type SatRec } from 'satellite.js';
+import { days2mdhms } from '../../node_modules/satellite.js/dist/ext.js';
+import type { SatRecInit } from '../../node_modules/satellite.js/dist/propagation/SatRec.js';
+// Not exported by the package (see makeSatrec); a file path bypasses the export map.
+import { sgp4init } from '../../node_modules/satellite.js/dist/propagation/sgp4init.js';
 import type { ElementSet } from '../elements/elementSet.js';
-import { toIso, type Instant } from '../time/instant.js';
+import { MS_PER_DAY, type Instant } from '../time/instant.js';
 import type { FailureReason, Trajectory } from './trajectory.js';
 import { vec3, type StateVector, type Km, type KmPerS } from '../units.js';
 
@@ -18,32 +22,92 @@ const REASONS: Record<number, FailureReason> = {
 
 export const reasonForSgp4Code = (code: number): FailureReason => REASONS[code] ?? 'bad-elements';
 
+/** Julian date of 1949 Dec 31 0h UTC, SGP4's "jan 0, 1950" epoch origin. */
+const JD_1950 = 2433281.5;
+/** 1e-8 day, the TLE epoch resolution. */
+const TLE_EPOCH_STEP_DAY = 1e-8;
+/** Day: 0.86 µs. An epoch this close to the 1e-8-day grid is taken to be a TLE epoch. */
+const TLE_GRID_SNAP_DAY = 1e-11;
+/** satellite.js constants.xpdotp: rev/day to rad/min. */
+const XPDOTP = 1440 / (2 * Math.PI);
+const DEG = Math.PI / 180;
+
 /**
- * Builds the SGP4 record of an element set. satellite.js reads the epoch through a JS Date
- * (millisecond resolution); the exact epoch is kept here and every propagation time is
- * measured from it, so the rounding only touches deep-space lunar/solar terms (checked
- * against the published verification vectors in test/sgp4-verification.test.ts).
+ * Day of year (1-based, fractional) as the TLE text states it. Recovering it from the Instant
+ * leaves ~1e-13 day of float noise (305.4999999899998 for "305.49999999"), which can move the
+ * reference's Julian-date rounding by one step (~40 µs, up to 3 mm on set 23333). Epochs within
+ * 0.86 µs of the 1e-8-day grid snap to it; others (OMM epochs) are kept as they are.
+ */
+function referenceDayOfYear(epoch: Instant, year: number): number {
+  const doy = (epoch - Date.UTC(year, 0, 1)) / MS_PER_DAY + 1;
+  const onGrid = Math.round(doy / TLE_EPOCH_STEP_DAY) * TLE_EPOCH_STEP_DAY;
+  return Math.abs(doy - onGrid) < TLE_GRID_SNAP_DAY ? Number(onGrid.toFixed(8)) : doy;
+}
+
+/**
+ * Builds the SGP4 record of an element set.
+ *
+ * Why not satellite.js's json2satrec: it reads EPOCH through a JS Date, rounded to the
+ * millisecond, while TLE epochs carry 1e-8 day. tsince is measured from the exact epoch either
+ * way (Sgp4Trajectory below), but deep-space (SDP4) initialisation evaluates lunar/solar terms
+ * and the resonance phase at the epoch, and these are sensitive: with the millisecond epoch the
+ * published verification vectors (Vallado et al. 2006) were missed by up to 35 mm (set 23333,
+ * e = 0.97, 13.7-day period; 20413: 5 mm). Even the exact epoch misses 23333 by 4 mm, because
+ * the reference code computes the epoch as a Julian date in one double (days2mdhms + jday,
+ * ~40 µs resolution) and SDP4 is evaluated at that rounded value. So the epoch handed to
+ * sgp4init is built the same way as the reference (satellite.js's own days2mdhms and jday,
+ * as its twoline2satrec does); every verification set then matches within 0.2 mm
+ * (test/sgp4-verification.test.ts). Physically the difference is tens of microseconds.
+ * sgp4init and days2mdhms are not in the package's export map, so they are reached by file
+ * path; opsmode 'i' and WGS-72 are the mode of the reference output.
  */
 export function makeSatrec(es: ElementSet): SatRec {
-  return json2satrec({
-    OBJECT_NAME: es.name ?? '',
-    OBJECT_ID: es.intlDesignator ?? '',
-    EPOCH: toIso(es.epoch),
-    MEAN_MOTION: es.meanMotion,
-    ECCENTRICITY: es.eccentricity,
-    INCLINATION: es.inclinationDeg,
-    RA_OF_ASC_NODE: es.raanDeg,
-    ARG_OF_PERICENTER: es.argPerigeeDeg,
-    MEAN_ANOMALY: es.meanAnomalyDeg,
-    EPHEMERIS_TYPE: 0,
-    CLASSIFICATION_TYPE: es.classification,
-    NORAD_CAT_ID: Number.parseInt(es.objectId, 10) || 0,
-    ELEMENT_SET_NO: es.elementSetNo,
-    REV_AT_EPOCH: es.revAtEpoch,
-    BSTAR: es.bstar,
-    MEAN_MOTION_DOT: es.meanMotionDot,
-    MEAN_MOTION_DDOT: es.meanMotionDdot,
-  } as Parameters<typeof json2satrec>[0]);
+  const year = new Date(Math.floor(es.epoch)).getUTCFullYear();
+  const epochdays = referenceDayOfYear(es.epoch, year);
+  const { mon, day, hr, minute, sec } = days2mdhms(year, epochdays);
+  const jdsatepoch = jday(year, mon, day, hr, minute, sec);
+  const rec: SatRecInit = {
+    error: 0,
+    satnum: String(Number.parseInt(es.objectId, 10) || 0),
+    epochyr: year % 100,
+    epochdays,
+    ndot: es.meanMotionDot / (XPDOTP * 1440),
+    nddot: es.meanMotionDdot / (XPDOTP * 1440 * 1440),
+    bstar: es.bstar,
+    inclo: es.inclinationDeg * DEG,
+    nodeo: es.raanDeg * DEG,
+    ecco: es.eccentricity,
+    argpo: es.argPerigeeDeg * DEG,
+    mo: es.meanAnomalyDeg * DEG,
+    no: es.meanMotion / XPDOTP,
+    jdsatepoch,
+  };
+  sgp4init(rec, {
+    opsmode: 'i',
+    satn: rec.satnum,
+    epoch: jdsatepoch - JD_1950,
+    xbstar: rec.bstar,
+    xecco: rec.ecco,
+    xargpo: rec.argpo,
+    xinclo: rec.inclo,
+    xmo: rec.mo,
+    xno: rec.no,
+    xnodeo: rec.nodeo,
+  });
+  return rec;
+}
+
+/**
+ * Elements outside SGP4's domain, named by the code SGP4 itself gives them. Checked before
+ * trusting sgp4init because satellite.js returns NaN states with error 0 for eccentricity
+ * exactly 1 or a negative mean motion (measured with satellite.js 7.1), while the reference
+ * code (python-sgp4 2.15) refuses them outright.
+ */
+function domainFailure(es: ElementSet): FailureReason | null {
+  if (!(es.eccentricity >= 0 && es.eccentricity < 1)) return 'bad-mean-eccentricity';
+  if (!(es.meanMotion > 0)) return 'negative-mean-motion';
+  const finite = [es.inclinationDeg, es.raanDeg, es.argPerigeeDeg, es.meanAnomalyDeg, es.bstar, es.epoch];
+  return finite.every(Number.isFinite) ? null : 'bad-elements';
 }
 
 /** SGP4/SDP4 trajectory of one element set. Never throws: failures come back as reasons. */
@@ -59,7 +123,8 @@ export class Sgp4Trajectory implements Trajectory {
     this.objectId = elements.objectId;
     this.epoch = elements.epoch;
     this.satrec = makeSatrec(elements);
-    this.initFailure = this.satrec.error ? reasonForSgp4Code(this.satrec.error) : null;
+    this.initFailure =
+      domainFailure(elements) ?? (this.satrec.error ? reasonForSgp4Code(this.satrec.error) : null);
   }
 
   /** State at minutes from epoch, the propagator's native time argument. */
@@ -68,6 +133,8 @@ export class Sgp4Trajectory implements Trajectory {
     const pv = sgp4(this.satrec, tsince);
     if (!pv) return reasonForSgp4Code(this.satrec.error);
     const p = pv.position, v = pv.velocity;
+    // NaN never compares equal to itself; a NaN state must not reach screening as a position.
+    if (p.x !== p.x || v.x !== v.x) return 'bad-elements';
     out[offset] = p.x;
     out[offset + 1] = p.y;
     out[offset + 2] = p.z;
