@@ -1,0 +1,139 @@
+/**
+ * OMM in XML (CCSDS 502.0-B-2 §8 / NDM/XML): a single <omm>, or an <ndm> holding many.
+ * fast-xml-parser does the parsing; it reports no line numbers for elements, so each <omm>'s
+ * line is found by scanning the text for its start tag (comments and CDATA blanked first).
+ * A syntax error inside one <omm> of an <ndm> rejects that OMM only: each <omm> is then
+ * parsed on its own.
+ */
+import { XMLParser, XMLValidator } from 'fast-xml-parser';
+import type { ElementSet } from '../elements/elementSet.js';
+import type { Rejection } from '../errors.js';
+import { OmmProblem, ommToElementSet, type OmmField } from './omm-fields.js';
+import { rejection, type ParseResult } from './result.js';
+
+export { formatOmmXml } from './omm-write.js';
+
+const parser = new XMLParser({
+  ignoreAttributes: false,
+  attributeNamePrefix: '@_',
+  parseTagValue: false, // keep numbers as text so the shared validation sees what was written
+  parseAttributeValue: false,
+  trimValues: true,
+  removeNSPrefix: true,
+  isArray: (name) => name === 'omm' || name === 'COMMENT',
+});
+
+/** Replaces comments and CDATA by blanks of the same length, keeping newlines (and offsets). */
+const blankOut = (text: string): string =>
+  text.replace(/<!--[\s\S]*?-->|<!\[CDATA\[[\s\S]*?\]\]>/g, (m) => m.replace(/[^\n]/g, ' '));
+
+const OMM_OPEN_RE = /<(?:[A-Za-z_][\w.-]*:)?omm(?=[\s>/])/g;
+
+function lineAt(text: string, offset: number): number {
+  let line = 1;
+  for (let i = text.indexOf('\n'); i >= 0 && i < offset; i = text.indexOf('\n', i + 1)) line++;
+  return line;
+}
+
+type XmlNode = Record<string, unknown>;
+const isNode = (v: unknown): v is XmlNode => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** Collects leaf keyword elements (value, units) of the OMM's header/metadata/data blocks. */
+function collect(node: XmlNode, out: Map<string, { value: string; units?: string | undefined }>): void {
+  for (const [k, v] of Object.entries(node)) {
+    if (k.startsWith('@_') || k === 'COMMENT' || k === '#text') continue;
+    if (isNode(v) && ('#text' in v || Object.keys(v).every((a) => a.startsWith('@_')))) {
+      const units = v['@_units'];
+      out.set(k, { value: String(v['#text'] ?? ''), units: typeof units === 'string' ? units : undefined });
+    } else if (isNode(v)) collect(v, out);
+    else if (typeof v === 'string' || typeof v === 'number') out.set(k, { value: String(v) });
+    // Repeated non-COMMENT elements (arrays) do not occur in an OMM; they are ignored.
+  }
+}
+
+interface OmmAt {
+  node: XmlNode;
+  offset: number;
+}
+
+function ommToSet(o: OmmAt, text: string, file: string): ElementSet {
+  const line = lineAt(text, o.offset);
+  const fields = new Map<string, { value: string; units?: string | undefined }>();
+  collect(o.node, fields);
+  const version = o.node['@_version'];
+  if (typeof version === 'string') fields.set('CCSDS_OMM_VERS', { value: version });
+  const lineOfKey = (k: string): number => {
+    const at = text.indexOf(`<${k}`, o.offset);
+    return at >= 0 ? lineAt(text, at) : line;
+  };
+  const get = (k: string): OmmField | undefined => {
+    const f = fields.get(k);
+    return f === undefined ? undefined : { value: f.value, units: f.units, line: lineOfKey(k) };
+  };
+  return ommToElementSet(get, { file, line, format: 'OMM-XML', requireHeader: true });
+}
+
+function syntaxRejection(file: string, text: string, base: number, err: { msg: string; line: number; col: number }): Rejection {
+  const offset = lineAt(text, base) - 1;
+  const line = offset + err.line;
+  // The validator counts lines from the start of the piece it was given; shift to file lines.
+  const msg = err.msg.replace(/\bline (\d+)/g, (_m, n: string) => `line ${Number(n) + offset}`);
+  return rejection(
+    'XML_SYNTAX',
+    file,
+    line,
+    `XML syntax error at line ${line} column ${err.col}: ${msg} — fix the XML (a validator or ` +
+      'editor shows the spot) or re-export the file',
+  );
+}
+
+export function parseOmmXml(text: string, file: string): ParseResult {
+  const scan = blankOut(text);
+  const starts = [...scan.matchAll(OMM_OPEN_RE)].map((m) => m.index);
+  const sets: ElementSet[] = [];
+  const rejections: Rejection[] = [];
+  const take = (o: OmmAt, src: string): void => {
+    try {
+      sets.push(ommToSet(o, src, file));
+    } catch (e) {
+      if (!(e instanceof OmmProblem)) throw e;
+      rejections.push(rejection(e.code, file, e.line, e.reason));
+    }
+  };
+
+  const valid = XMLValidator.validate(text);
+  if (valid === true) {
+    const doc = parser.parse(text) as XmlNode;
+    const root = isNode(doc['ndm']) ? doc['ndm'] : doc;
+    const omms = Array.isArray(root['omm']) ? (root['omm'] as unknown[]) : [];
+    if (omms.length === 0)
+      rejections.push(
+        rejection('OMM_MISSING_KEYWORD', file, 1, 'the XML holds no <omm> element: it is not an OMM file; check the file chosen'),
+      );
+    omms.forEach((n, k) => {
+      if (isNode(n)) take({ node: n, offset: starts[k] ?? 0 }, text);
+    });
+    return { sets, rejections };
+  }
+
+  // Syntax error: retry each <omm>…</omm> on its own so the intact ones still import.
+  const closeRe = /<\/(?:[A-Za-z_][\w.-]*:)?omm\s*>/g;
+  let reported = false;
+  for (const start of starts) {
+    closeRe.lastIndex = start;
+    const close = closeRe.exec(scan);
+    const end = close ? close.index + close[0].length : text.length;
+    const chunk = text.slice(start, end);
+    const v = XMLValidator.validate(chunk);
+    if (v !== true) {
+      rejections.push(syntaxRejection(file, text, start, v.err));
+      reported = true;
+      continue;
+    }
+    const node = (parser.parse(chunk) as XmlNode)['omm'];
+    const first = Array.isArray(node) ? (node[0] as unknown) : undefined;
+    if (isNode(first)) take({ node: first, offset: start }, text);
+  }
+  if (!reported) rejections.push(syntaxRejection(file, text, 0, valid.err));
+  return { sets, rejections };
+}
