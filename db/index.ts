@@ -1,0 +1,52 @@
+/** The storage layer: the only place with SQL. Import from here. */
+export { KeepclearDb, openDatabase, inTransaction } from './connection.js';
+export { defaultDbPath, chooseDbPath } from './paths.js';
+export { MIGRATIONS, SCHEMA_VERSION, migrate, schemaVersion, describeDatabase, type Migration } from './migrations.js';
+export { getObject, countObjects, setHardBodyRadius, type StoredObject } from './objects.js';
+export {
+  storeElementSets,
+  latestElementSets,
+  elementSetHistory,
+  supersededElementSets,
+  type StoreResult,
+} from './elementSets.js';
+export { EPOCH_MATCH_MS, ELEMENT_DIGITS, elementsKey } from './sameElements.js';
+export { catalogFingerprint } from './fingerprint.js';
+export {
+  listImportFiles,
+  rejectionsOfImport,
+  type ImportFileRef,
+  type ImportCounts,
+  type ImportFileRecord,
+  type StoredRejection,
+} from './imports.js';
+export {
+  createRun,
+  finishRun,
+  getRun,
+  listRuns,
+  latestRun,
+  type RunStatus,
+  type RunRecord,
+  type RunOutcome,
+} from './runs.js';
+export {
+  eventsOfRun,
+  getEvent,
+  updateEventRisk,
+  getEventExtra,
+  mergeEventExtra,
+  eventId,
+  type NewEvent,
+} from './events.js';
+export {
+  storeCdm,
+  storeCdmFile,
+  listCdms,
+  getCdm,
+  linkCdmToEvent,
+  type CdmRecord,
+  type StoredCdm,
+  type CdmFilter,
+} from './cdm.js';
+export { getSetting, putSetting, deleteSetting } from './settings.js';

@@ -1,0 +1,151 @@
+import { KeepclearError } from '../core/errors.js';
+import type {
+  ConjunctionEvent,
+  FlaggedObject,
+  ScreeningSettings,
+  ScreeningVolume,
+} from '../core/screening/types.js';
+import { instantFromMs, type Instant } from '../core/time/instant.js';
+import { inTransaction, type KeepclearDb } from './connection.js';
+import { insertEvents, type NewEvent } from './events.js';
+
+export type RunStatus = 'running' | 'done' | 'cancelled' | 'failed';
+
+export interface RunRecord {
+  readonly id: string;
+  readonly createdAt: Instant;
+  readonly settings: ScreeningSettings;
+  /** catalogFingerprint() of the sets screened: tells whether two runs saw the same orbits */
+  readonly catalogFingerprint: string;
+  readonly objectCount: number;
+  readonly status: RunStatus;
+  /** null while running */
+  readonly finishedAt: Instant | null;
+  readonly wallMs: number | null;
+  readonly eventCount: number | null;
+  readonly flagged: readonly FlaggedObject[];
+}
+
+export interface RunOutcome {
+  readonly status: Exclude<RunStatus, 'running'>;
+  readonly wallMs: number;
+  readonly flagged: readonly FlaggedObject[];
+  /** ids and run ids are assigned here; any the caller set are ignored */
+  readonly events: readonly NewEvent[];
+}
+
+interface RunRow {
+  id: string;
+  seq: number;
+  created_at: number;
+  start_ms: number;
+  end_ms: number;
+  volume_json: string;
+  primaries_json: string;
+  catalog_fingerprint: string;
+  object_count: number;
+  status: RunStatus;
+  finished_at: number | null;
+  wall_ms: number | null;
+  event_count: number | null;
+  flagged_count: number | null;
+}
+
+function fromRow(db: KeepclearDb, r: RunRow): RunRecord {
+  const flagged = db
+    .stmt('SELECT object_id AS id, reason FROM run_flagged WHERE run_id = ? ORDER BY rowid')
+    .all(r.id) as FlaggedObject[];
+  return {
+    id: r.id,
+    createdAt: instantFromMs(r.created_at),
+    settings: {
+      start: instantFromMs(r.start_ms),
+      end: instantFromMs(r.end_ms),
+      volume: JSON.parse(r.volume_json) as ScreeningVolume,
+      primaries: JSON.parse(r.primaries_json) as string[] | 'all',
+    },
+    catalogFingerprint: r.catalog_fingerprint,
+    objectCount: r.object_count,
+    status: r.status,
+    finishedAt: r.finished_at === null ? null : instantFromMs(r.finished_at),
+    wallMs: r.wall_ms,
+    eventCount: r.event_count,
+    flagged,
+  };
+}
+
+/**
+ * Opens a run in status "running" and returns its id: "R" and a sequence number ("R12"), short
+ * enough to type after --run. The number is taken inside a write transaction, so two processes
+ * sharing the file cannot get the same one.
+ */
+export function createRun(
+  db: KeepclearDb,
+  settings: ScreeningSettings,
+  fingerprint: string,
+  objectCount: number,
+): string {
+  return inTransaction(db, () => {
+    const seq = (db.stmt('SELECT COALESCE(MAX(seq), 0) + 1 FROM runs').pluck().get() as number);
+    const id = `R${seq}`;
+    db.stmt(
+      `INSERT INTO runs (id, seq, created_at, start_ms, end_ms, volume_json, primaries_json,
+         catalog_fingerprint, object_count, status)
+       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, 'running')`,
+    ).run(
+      id,
+      seq,
+      Date.now(),
+      settings.start,
+      settings.end,
+      JSON.stringify(settings.volume),
+      JSON.stringify(settings.primaries),
+      fingerprint,
+      objectCount,
+    );
+    return id;
+  });
+}
+
+/**
+ * Closes a running run with its results, in one transaction (a reader never sees a "done" run
+ * with half its events). Returns the events as stored, with ids, in TCA order.
+ */
+export function finishRun(db: KeepclearDb, runId: string, outcome: RunOutcome): ConjunctionEvent[] {
+  return inTransaction(db, () => {
+    const status = db.stmt('SELECT status FROM runs WHERE id = ?').pluck().get(runId) as RunStatus | undefined;
+    if (status === undefined) throw new KeepclearError('NOT_FOUND', `no run "${runId}"`);
+    if (status !== 'running') {
+      throw new KeepclearError('INTERNAL', `run "${runId}" is already ${status}; a run is finished once`);
+    }
+    const flag = db.stmt('INSERT INTO run_flagged (run_id, object_id, reason) VALUES (?, ?, ?)');
+    for (const f of outcome.flagged) flag.run(runId, f.id, f.reason);
+    const events = insertEvents(db, runId, outcome.events);
+    db.stmt(
+      `UPDATE runs SET status = ?, finished_at = ?, wall_ms = ?, event_count = ?, flagged_count = ?
+        WHERE id = ?`,
+    ).run(outcome.status, Date.now(), outcome.wallMs, events.length, outcome.flagged.length, runId);
+    return events;
+  });
+}
+
+export function getRun(db: KeepclearDb, id: string): RunRecord | null {
+  const row = db.stmt('SELECT * FROM runs WHERE id = ?').get(id) as RunRow | undefined;
+  return row ? fromRow(db, row) : null;
+}
+
+/** Runs, newest first. */
+export function listRuns(db: KeepclearDb, limit = 100): RunRecord[] {
+  const rows = db.stmt('SELECT * FROM runs ORDER BY seq DESC LIMIT ?').all(limit) as RunRow[];
+  return rows.map((r) => fromRow(db, r));
+}
+
+/** The newest run, or the newest with the given status (e.g. 'done' for `keepclear events`). */
+export function latestRun(db: KeepclearDb, status?: RunStatus): RunRecord | null {
+  const row = (
+    status === undefined
+      ? db.stmt('SELECT * FROM runs ORDER BY seq DESC LIMIT 1').get()
+      : db.stmt('SELECT * FROM runs WHERE status = ? ORDER BY seq DESC LIMIT 1').get(status)
+  ) as RunRow | undefined;
+  return row ? fromRow(db, row) : null;
+}
