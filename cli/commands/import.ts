@@ -12,6 +12,7 @@ import {
   type KeepclearDb,
 } from '../../db/index.js';
 import { optNumber, optString, parseArgs } from '../args.js';
+import { importCdmFile } from '../../app/cdmImport.js';
 
 /**
  * `keepclear import FILE... [--db FILE] [--hbr-m X]`
@@ -33,22 +34,34 @@ const MESSAGE_FORMATS: readonly Format[] = ['CDM-KVN', 'CDM-XML', 'OEM-KVN', 'OE
 const isMessageFormat = (f: Format): f is MessageFormat => MESSAGE_FORMATS.includes(f);
 
 /**
- * THE place where CDM and OEM files are routed. The CDM and OEM importers plug in here: each
- * should store its file in one transaction (db/cdm.ts storeCdmFile does for CDMs) and return a
- * FileOutcome; `hbrM` is the --hbr-m value for the objects of the file, when given.
+ * THE place where CDM and OEM files are routed. Each importer stores its file in one
+ * transaction and returns a FileOutcome; `hbrM` is the --hbr-m value for the file's objects.
  */
 export function importMessageFile(
-  _db: KeepclearDb,
+  db: KeepclearDb,
   file: string,
-  _bytes: Uint8Array,
-  _sha256: string,
+  bytes: Uint8Array,
+  sha256: string,
   format: MessageFormat,
-  _hbrM: number | undefined,
+  hbrM: number | undefined,
 ): FileOutcome {
-  const kind = format.startsWith('CDM') ? 'CDM' : 'OEM';
+  if (format.startsWith('CDM')) {
+    try {
+      const r = importCdmFile(db, file, bytes, sha256, format, hbrM);
+      for (const note of r.repairs) process.stderr.write(`keepclear: ${file}: note: ${note}\n`);
+      return { ok: true, format, counts: r.counts, rejections: r.rejections };
+    } catch (err) {
+      if (err instanceof KeepclearError) return { ok: false, error: err };
+      throw err;
+    }
+  }
   return {
     ok: false,
-    error: new KeepclearError('FORMAT_UNKNOWN', `${kind} import is handled by the risk module`, { file, line: 1 }),
+    error: new KeepclearError(
+      'FORMAT_UNKNOWN',
+      'OEM owner ephemerides are not imported yet (planned); import TLE, OMM or CDM files',
+      { file, line: 1 },
+    ),
   };
 }
 
@@ -106,39 +119,49 @@ export async function importCommand(argv: readonly string[]): Promise<number> {
     throw new KeepclearError('BAD_ARGUMENT', 'import needs at least one FILE: keepclear import FILE... [--db FILE] [--hbr-m X]');
   }
   const db = openDatabase(optString(args, 'db') ?? defaultDbPath());
-  const total = { imported: 0, updated: 0, unchanged: 0, rejected: 0 };
-  let failed = 0;
   try {
-    for (const file of args.positional) {
-      let outcome: FileOutcome;
-      try {
-        outcome = importOneFile(db, file, hbrM);
-      } catch (err) {
-        // A storage failure (disk full, locked database) rolled the file back; say so and go on.
-        const why = err instanceof KeepclearError ? err.message : (err as Error).message;
-        outcome = {
-          ok: false,
-          error: new KeepclearError('INTERNAL', `not stored, nothing of this file was kept: ${why}`, { file, line: 1 }),
-        };
-      }
-      if (!outcome.ok) {
-        failed++;
-        const line = outcome.error.where ? outcome.error.toLine() : `${file}:1: ${outcome.error.message}`;
-        process.stderr.write(`keepclear: ${line}\n`);
-        continue;
-      }
-      for (const r of outcome.rejections) process.stderr.write(`keepclear: ${rejectionLine(r)}\n`);
-      process.stdout.write(`${file} (${outcome.format}): ${countsText(outcome.counts)}\n`);
-      total.imported += outcome.counts.imported;
-      total.updated += outcome.counts.updated;
-      total.unchanged += outcome.counts.unchanged;
-      total.rejected += outcome.counts.rejected;
-    }
+    return importCatalogFiles(db, args.positional, hbrM, false) ? 0 : 1;
   } finally {
     db.close();
   }
-  const files = args.positional.length;
+}
+
+/**
+ * Imports files one by one (each in its own transaction), reporting rejections on stderr and
+ * counts on stdout (on stderr when `quiet`, so stdout can carry JSON). True when every file
+ * imported without a single rejected record.
+ */
+export function importCatalogFiles(db: KeepclearDb, files: readonly string[], hbrM: number | undefined, quiet: boolean): boolean {
+  const out = quiet ? process.stderr : process.stdout;
+  const total = { imported: 0, updated: 0, unchanged: 0, rejected: 0 };
+  let failed = 0;
+  for (const file of files) {
+    let outcome: FileOutcome;
+    try {
+      outcome = importOneFile(db, file, hbrM);
+    } catch (err) {
+      // A storage failure (disk full, locked database) rolled the file back; say so and go on.
+      const why = err instanceof KeepclearError ? err.message : (err as Error).message;
+      outcome = {
+        ok: false,
+        error: new KeepclearError('INTERNAL', `not stored, nothing of this file was kept: ${why}`, { file, line: 1 }),
+      };
+    }
+    if (!outcome.ok) {
+      failed++;
+      const line = outcome.error.where ? outcome.error.toLine() : `${file}:1: ${outcome.error.message}`;
+      process.stderr.write(`keepclear: ${line}\n`);
+      continue;
+    }
+    for (const r of outcome.rejections) process.stderr.write(`keepclear: ${rejectionLine(r)}\n`);
+    out.write(`${file} (${outcome.format}): ${countsText(outcome.counts)}\n`);
+    total.imported += outcome.counts.imported;
+    total.updated += outcome.counts.updated;
+    total.unchanged += outcome.counts.unchanged;
+    total.rejected += outcome.counts.rejected;
+  }
+  const n = files.length;
   const failedText = failed > 0 ? `, ${failed} not imported` : '';
-  process.stdout.write(`total: ${countsText(total)} (${files} file${files === 1 ? '' : 's'}${failedText})\n`);
-  return failed > 0 || total.rejected > 0 ? 1 : 0;
+  out.write(`total: ${countsText(total)} (${n} file${n === 1 ? '' : 's'}${failedText})\n`);
+  return failed === 0 && total.rejected === 0;
 }

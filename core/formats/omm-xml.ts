@@ -29,10 +29,24 @@ const blankOut = (text: string): string =>
 
 const OMM_OPEN_RE = /<(?:[A-Za-z_][\w.-]*:)?omm(?=[\s>/])/g;
 
+/** Offsets of line starts of the last text seen: a file is scanned once, not once per keyword. */
+let cachedText: string | null = null;
+let cachedStarts: number[] = [];
+
 function lineAt(text: string, offset: number): number {
-  let line = 1;
-  for (let i = text.indexOf('\n'); i >= 0 && i < offset; i = text.indexOf('\n', i + 1)) line++;
-  return line;
+  if (text !== cachedText) {
+    cachedText = text;
+    cachedStarts = [0];
+    for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) cachedStarts.push(i + 1);
+  }
+  // Binary search: the number of line starts at or before offset is the 1-based line.
+  let lo = 0, hi = cachedStarts.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (cachedStarts[mid]! <= offset) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
 }
 
 type XmlNode = Record<string, unknown>;

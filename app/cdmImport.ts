@@ -1,0 +1,172 @@
+import { KeepclearError, type Rejection } from '../core/errors.js';
+import { parseCdmFile, hardBodyRadiusFromAreaPc, type Cdm, type CdmObject } from '../core/formats/cdm.js';
+import { eme2000ToGcrf } from '../core/frames/eme2000.js';
+import { gcrfToTeme, itrfToTeme } from '../core/frames/teme.js';
+import { approachAngleDeg, relativeRtn } from '../core/screening/geometry.js';
+import type { Encounter, StateArray } from '../core/screening/types.js';
+import type { Instant } from '../core/time/instant.js';
+import { vec3, type Km, type KmPerS, type StateVector } from '../core/units.js';
+import {
+  createRun,
+  eventsOfRun,
+  finishRun,
+  inTransaction,
+  latestRun,
+  linkCdmToEvent,
+  mergeEventExtra,
+  storeCdmFile,
+  type ImportCounts,
+  type KeepclearDb,
+} from '../db/index.js';
+import { RiskContext } from './risk.js';
+
+/** Runs made from received messages carry this fingerprint prefix (screening runs never do). */
+export const CDM_RUN_PREFIX = 'cdm:';
+/** A screened event is the same conjunction as a message when pair matches and TCAs agree this well. */
+const SAME_TCA_MS = 60_000;
+
+export interface CdmImportOutcome {
+  readonly counts: ImportCounts;
+  readonly rejections: readonly Rejection[];
+  readonly repairs: readonly string[];
+  readonly eventId: string | null;
+}
+
+/** Catalogue designators are stored as canonical ids: digits without leading zeros. */
+export const canonicalId = (designator: string): string =>
+  /^\d+$/.test(designator.trim()) ? String(Number(designator.trim())) : designator.trim();
+
+function toTeme(o: CdmObject, t: Instant): StateArray {
+  const s = o.state;
+  const r = vec3<'GCRF', Km>(s.r[0], s.r[1], s.r[2]);
+  const v = vec3<'GCRF', KmPerS>(s.v[0], s.v[1], s.v[2]);
+  let teme: StateVector<'TEME'>;
+  switch (o.metadata.refFrame) {
+    case 'ITRF':
+      teme = itrfToTeme({ r, v } as unknown as StateVector<'ITRF'>, t);
+      break;
+    case 'EME2000':
+      teme = gcrfToTeme(eme2000ToGcrf({ r, v } as unknown as StateVector<'EME2000'>), t);
+      break;
+    default:
+      teme = gcrfToTeme({ r, v }, t);
+  }
+  return [teme.r[0], teme.r[1], teme.r[2], teme.v[0], teme.v[1], teme.v[2]];
+}
+
+/** The conjunction a message describes, as an encounter (states in TEME at TCA). */
+export function encounterFromCdm(cdm: Cdm): Encounter {
+  const tca = cdm.relative.tca;
+  const p = toTeme(cdm.object1, tca), s = toTeme(cdm.object2, tca);
+  const epochOf = (o: CdmObject) => o.od.timeLastobEnd ?? tca;
+  return {
+    primary: canonicalId(cdm.object1.metadata.objectDesignator),
+    secondary: canonicalId(cdm.object2.metadata.objectDesignator),
+    tca,
+    missKm: Math.hypot(s[0] - p[0], s[1] - p[1], s[2] - p[2]),
+    relativeSpeedKmS: Math.hypot(s[3] - p[3], s[4] - p[4], s[5] - p[5]),
+    rtnKm: relativeRtn(p, s),
+    approachAngleDeg: approachAngleDeg(p, s),
+    entry: cdm.relative.screenEntryTime ?? null,
+    exit: cdm.relative.screenExitTime ?? null,
+    primaryState: p,
+    secondaryState: s,
+    primaryEpoch: epochOf(cdm.object1),
+    secondaryEpoch: epochOf(cdm.object2),
+  };
+}
+
+/**
+ * Imports one CDM file in ONE transaction: the message, a run holding its event with
+ * Keepclear's own Pc (the message's COLLISION_PROBABILITY is kept apart as "reported"), and a
+ * link to the screened event of the same pair and TCA, when there is one. A covariance that is
+ * not positive semi-definite beyond rounding is kept flagged, and Pc falls back to maximum Pc.
+ */
+export function importCdmFile(
+  db: KeepclearDb,
+  file: string,
+  bytes: Uint8Array,
+  sha256: string,
+  format: string,
+  hbrM: number | undefined,
+): CdmImportOutcome {
+  const parsed = parseCdmFile(bytes, file, { badCovariance: 'flag' });
+  if (!parsed.cdm) {
+    const first = parsed.errors[0];
+    throw new KeepclearError(first?.code ?? 'CDM_FIELD', first?.reason ?? 'not a readable CDM', {
+      file,
+      line: first?.line ?? 1,
+    });
+  }
+  const cdm = parsed.cdm;
+  const enc = encounterFromCdm(cdm);
+  const hbr = (o: CdmObject) =>
+    o.additional.areaPc !== undefined ? hardBodyRadiusFromAreaPc(o.additional.areaPc) : (hbrM ?? null);
+  const covOf = (o: CdmObject) => o.covariance.usable ?? o.covariance.matrix;
+  const risk = new RiskContext(db).assess(enc, {
+    primaryRtnM2: covOf(cdm.object1),
+    secondaryRtnM2: covOf(cdm.object2),
+    hbrPrimaryM: hbr(cdm.object1),
+    hbrSecondaryM: hbr(cdm.object2),
+  });
+  const notes = [...parsed.repairs, ...[cdm.object1, cdm.object2].flatMap((o) => (o.covariance.note ? [o.covariance.note] : []))];
+  const riskWithNotes = { ...risk, warnings: [...new Set([...risk.warnings, ...notes])] };
+  const rv = cdm.relative;
+  const volume =
+    rv.screenVolumeShape === 'ELLIPSOID' && rv.screenVolumeX && rv.screenVolumeY && rv.screenVolumeZ
+      ? { kind: 'rtn-ellipsoid' as const, rKm: rv.screenVolumeX / 1000, tKm: rv.screenVolumeY / 1000, nKm: rv.screenVolumeZ / 1000 }
+      : { kind: 'sphere' as const, radiusKm: Math.max(enc.missKm, 0.001) };
+
+  return inTransaction(db, () => {
+    const stored = storeCdmFile(db, { path: file, sha256, format }, [
+      {
+        messageId: cdm.header.messageId,
+        creationDate: cdm.header.creationDate,
+        originator: cdm.header.originator,
+        tca: enc.tca,
+        missDistanceM: cdm.relative.missDistance,
+        object1Id: enc.primary,
+        object2Id: enc.secondary,
+        reportedPc: cdm.relative.collisionProbability ?? null,
+        parsed: cdm,
+        eventId: null,
+      },
+    ], []);
+    const counts = { imported: stored.imported, updated: 0, unchanged: stored.unchanged, rejected: 0 };
+    if (stored.imported === 0) return { counts, rejections: [], repairs: notes, eventId: null };
+    const start = rv.startScreenPeriod ?? enc.tca;
+    const end = rv.stopScreenPeriod && rv.stopScreenPeriod > start ? rv.stopScreenPeriod : ((start + 1) as Instant);
+    const runId = createRun(db, { start, end, volume, primaries: [enc.primary] }, `${CDM_RUN_PREFIX}${sha256}`, 2);
+    const [event] = finishRun(db, runId, { status: 'done', wallMs: 0, flagged: [], events: [{ ...enc, risk: riskWithNotes }] });
+    const eventId = event!.id;
+    linkCdmToEvent(db, stored.ids[0]!, eventId);
+    const extra: Record<string, unknown> = {
+      source: 'cdm',
+      cdmId: stored.ids[0],
+      reportedPc: cdm.relative.collisionProbability ?? null,
+      reportedPcMethod: cdm.relative.collisionProbabilityMethod ?? null,
+      reportedMissKm: cdm.relative.missDistance / 1000,
+      originator: cdm.header.originator,
+      messageId: cdm.header.messageId,
+    };
+    const screened = latestScreeningEvent(db, enc);
+    if (screened) {
+      extra.matchedEventId = screened;
+      mergeEventExtra(db, screened, { cdmEventId: eventId });
+    }
+    mergeEventExtra(db, eventId, extra);
+    return { counts, rejections: [], repairs: notes, eventId };
+  });
+}
+
+/** The event of the newest screening run with the same pair (either order) and TCA. */
+function latestScreeningEvent(db: KeepclearDb, e: Encounter): string | null {
+  const run = latestRun(db, 'done');
+  if (!run || run.catalogFingerprint.startsWith(CDM_RUN_PREFIX)) return null;
+  const hit = eventsOfRun(db, run.id).find(
+    (x) =>
+      ((x.primary === e.primary && x.secondary === e.secondary) || (x.primary === e.secondary && x.secondary === e.primary)) &&
+      Math.abs(x.tca - e.tca) <= SAME_TCA_MS,
+  );
+  return hit ? hit.id : null;
+}

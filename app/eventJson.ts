@@ -1,0 +1,53 @@
+import { toIso } from '../core/time/instant.js';
+import type { ConjunctionEvent, FlaggedObject, ScreeningSettings } from '../core/screening/types.js';
+import type { RunRecord } from '../db/index.js';
+
+/** JSON of one event: the contract names of DESIGN.md ("JSON of screen and events") plus extras. */
+export function eventToJson(e: ConjunctionEvent): Record<string, unknown> {
+  const r = e.risk;
+  return {
+    id: e.id,
+    runId: e.runId,
+    primary: e.primary,
+    secondary: e.secondary,
+    tca: toIso(e.tca),
+    missKm: e.missKm,
+    relativeSpeedKmS: e.relativeSpeedKmS,
+    rtnKm: [...e.rtnKm],
+    approachAngleDeg: e.approachAngleDeg,
+    pc: r ? r.pc : null,
+    pcMethod: r ? r.pcMethod : null,
+    covarianceSource: r ? r.covarianceSource : null,
+    hardBodyRadiusM: r ? r.hardBodyRadiusM : null,
+    tier: r ? r.tier : null,
+    warnings: r ? [...r.warnings] : [],
+    entry: e.entry === null ? null : toIso(e.entry),
+    exit: e.exit === null ? null : toIso(e.exit),
+    atWindowEdge: e.atWindowEdge === true,
+    primaryEpoch: toIso(e.primaryEpoch),
+    secondaryEpoch: toIso(e.secondaryEpoch),
+    primaryAgeDays: (e.tca - e.primaryEpoch) / 86_400_000,
+    secondaryAgeDays: (e.tca - e.secondaryEpoch) / 86_400_000,
+    primaryStateTeme: [...e.primaryState],
+    secondaryStateTeme: [...e.secondaryState],
+  };
+}
+
+export function runToJson(run: RunRecord, flagged: readonly FlaggedObject[] = run.flagged): Record<string, unknown> {
+  const s: ScreeningSettings = run.settings;
+  const v = s.volume;
+  return {
+    id: run.id,
+    start: toIso(s.start),
+    end: toIso(s.end),
+    days: (s.end - s.start) / 86_400_000,
+    thresholdKm: v.kind === 'sphere' ? v.radiusKm : null,
+    ...(v.kind === 'rtn-ellipsoid' ? { volumeRtnKm: [v.rKm, v.tKm, v.nKm] } : {}),
+    objects: run.objectCount,
+    primaries: s.primaries === 'all' ? 'all' : [...s.primaries],
+    flagged: flagged.map((f) => ({ id: f.id, reason: f.reason })),
+    status: run.status,
+    catalogFingerprint: run.catalogFingerprint,
+    wallMs: run.wallMs,
+  };
+}

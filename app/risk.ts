@@ -1,0 +1,51 @@
+import type { ElementSet } from '../core/elements/elementSet.js';
+import type { Matrix } from '../core/math/linalg.js';
+import { assessEncounter, type CovarianceInput } from '../core/risk/assess.js';
+import type { TierThresholds } from '../core/risk/tiers.js';
+import type { Encounter, RiskAssessment } from '../core/screening/types.js';
+import { elementSetHistory, getObject, getSetting, type KeepclearDb } from '../db/index.js';
+
+/** Settings key of user-set tier thresholds (JSON: { mitigatePc, attentionPc, ... }). */
+export const TIER_SETTINGS_KEY = 'risk.tierThresholds';
+
+/**
+ * Risk of screened encounters with what the database knows: each object's element-set history
+ * (covariance source 2) or its newest element set (default table, source 3), and its
+ * hard-body radius. Received CDM covariances (source 1) come in through `cdmCovariances`.
+ */
+export class RiskContext {
+  private readonly history = new Map<string, ElementSet[]>();
+  private readonly thresholds: Partial<TierThresholds> | undefined;
+
+  constructor(private readonly db: KeepclearDb) {
+    this.thresholds = (getSetting(db, TIER_SETTINGS_KEY) as Partial<TierThresholds> | undefined) ?? undefined;
+  }
+
+  private historyOf(id: string): ElementSet[] {
+    let h = this.history.get(id);
+    if (!h) {
+      h = elementSetHistory(this.db, id);
+      this.history.set(id, h);
+    }
+    return h;
+  }
+
+  private input(id: string, epoch: number, cdmRtnM2: Matrix | null | undefined): CovarianceInput {
+    // History up to the set used in the screening (later sets did not exist for it).
+    const h = this.historyOf(id).filter((s) => s.epoch <= epoch + 1);
+    return { cdmRtnM2: cdmRtnM2 ?? null, history: h, elements: h[h.length - 1] ?? null };
+  }
+
+  assess(
+    e: Encounter,
+    cdm?: { primaryRtnM2?: Matrix | null; secondaryRtnM2?: Matrix | null; hbrPrimaryM?: number | null; hbrSecondaryM?: number | null },
+  ): RiskAssessment {
+    return assessEncounter(e, {
+      primary: this.input(e.primary, e.primaryEpoch, cdm?.primaryRtnM2),
+      secondary: this.input(e.secondary, e.secondaryEpoch, cdm?.secondaryRtnM2),
+      hbrPrimaryM: cdm?.hbrPrimaryM ?? getObject(this.db, e.primary)?.hardBodyRadiusM ?? null,
+      hbrSecondaryM: cdm?.hbrSecondaryM ?? getObject(this.db, e.secondary)?.hardBodyRadiusM ?? null,
+      ...(this.thresholds ? { thresholds: this.thresholds } : {}),
+    });
+  }
+}

@@ -1,0 +1,60 @@
+import type { Instant } from '../core/time/instant.js';
+import { KeepclearError } from '../core/errors.js';
+import { runScreening } from '../core/screening/run.js';
+import type { ConjunctionEvent, ScreeningSettings } from '../core/screening/types.js';
+import { catalogFingerprint, createRun, finishRun, getRun, latestElementSets, type KeepclearDb, type RunRecord } from '../db/index.js';
+import { RiskContext } from './risk.js';
+
+export interface ScreenRequest {
+  readonly settings: ScreeningSettings;
+  readonly workers?: number;
+  readonly onProgress?: (done: number, total: number) => void;
+  readonly signal?: AbortSignal;
+}
+
+export interface ScreenResult {
+  readonly run: RunRecord;
+  readonly events: ConjunctionEvent[];
+}
+
+/**
+ * One screening run end to end: the newest element set of every stored object, the screening
+ * (worker threads), the risk of each encounter, and the run stored in one transaction.
+ * A cancelled run is stored as cancelled with what was found so far.
+ */
+export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promise<ScreenResult> {
+  const sets = latestElementSets(db);
+  if (sets.length === 0) {
+    throw new KeepclearError('NOT_FOUND', 'the database holds no element sets; import a catalogue first (keepclear import FILE)');
+  }
+  const known = new Set(sets.map((s) => s.objectId));
+  if (req.settings.primaries !== 'all') {
+    const missing = req.settings.primaries.filter((p) => !known.has(p));
+    if (missing.length > 0) {
+      throw new KeepclearError('NOT_FOUND', `no element set for primary ${missing.join(', ')}; import it first or check the id`);
+    }
+  }
+  const runId = createRun(db, req.settings, catalogFingerprint(db), sets.length);
+  let outcome;
+  try {
+    outcome = await runScreening(sets, req.settings, {
+      ...(req.workers !== undefined ? { workers: req.workers } : {}),
+      ...(req.onProgress ? { onProgress: req.onProgress } : {}),
+      ...(req.signal ? { signal: req.signal } : {}),
+    });
+  } catch (err) {
+    finishRun(db, runId, { status: 'failed', wallMs: 0, flagged: [], events: [] });
+    throw err;
+  }
+  const risk = new RiskContext(db);
+  const events = outcome.encounters.map((e) => ({ ...e, risk: risk.assess(e) }));
+  const stored = finishRun(db, runId, {
+    status: outcome.cancelled ? 'cancelled' : 'done',
+    wallMs: outcome.wallMs,
+    flagged: outcome.flagged,
+    events,
+  });
+  return { run: getRun(db, runId)!, events: stored };
+}
+
+export const daysAfter = (start: Instant, days: number): Instant => (start + days * 86_400_000) as Instant;
