@@ -2,7 +2,7 @@ import { mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { KeepclearError } from '../../core/errors.js';
 import { formatTleFile } from '../../core/formats/tle.js';
-import { formatOmmXml } from '../../core/formats/omm-xml.js';
+import { formatOmmJson } from '../../core/formats/omm-write.js';
 import { buildDemoScenario } from '../../core/synthetic/demo.js';
 import { toIso } from '../../core/time/instant.js';
 import { openDatabase, eventsOfRun } from '../../db/index.js';
@@ -35,11 +35,11 @@ export async function demoCommand(argv: readonly string[]): Promise<number> {
   const files = {
     history: join(dir, 'fleet-history.tle'),
     fleet: join(dir, 'fleet.tle'),
-    catalog: join(dir, 'catalog.xml'),
+    catalog: join(dir, 'catalog.json'),
   };
   writeFileSync(files.history, formatTleFile(Object.values(scenario.history).flat()));
   writeFileSync(files.fleet, formatTleFile(scenario.fleet));
-  writeFileSync(files.catalog, formatOmmXml(scenario.catalog));
+  writeFileSync(files.catalog, formatOmmJson(scenario.catalog));
 
   const dbPath = join(dir, DEMO_DB);
   // A fresh database each time, so the demo always shows the same week.

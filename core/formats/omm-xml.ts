@@ -68,17 +68,22 @@ function collect(node: XmlNode, out: Map<string, { value: string; units?: string
 interface OmmAt {
   node: XmlNode;
   offset: number;
+  /** where the next <omm> starts (or the text ends): keyword lookups stay inside this OMM */
+  end: number;
 }
 
 function ommToSet(o: OmmAt, text: string, file: string): ElementSet {
   const line = lineAt(text, o.offset);
+  const own = text.slice(o.offset, o.end);
   const fields = new Map<string, { value: string; units?: string | undefined }>();
   collect(o.node, fields);
   const version = o.node['@_version'];
   if (typeof version === 'string') fields.set('CCSDS_OMM_VERS', { value: version });
   const lineOfKey = (k: string): number => {
-    const at = text.indexOf(`<${k}`, o.offset);
-    return at >= 0 ? lineAt(text, at) : line;
+    // Searched inside this OMM only: an absent tag must not send the search through the rest
+    // of the file (that made large files quadratic).
+    const at = own.indexOf(`<${k}`);
+    return at >= 0 ? lineAt(text, o.offset + at) : line;
   };
   const get = (k: string): OmmField | undefined => {
     const f = fields.get(k);
@@ -125,7 +130,7 @@ export function parseOmmXml(text: string, file: string): ParseResult {
         rejection('OMM_MISSING_KEYWORD', file, 1, 'the XML holds no <omm> element: it is not an OMM file; check the file chosen'),
       );
     omms.forEach((n, k) => {
-      if (isNode(n)) take({ node: n, offset: starts[k] ?? 0 }, text);
+      if (isNode(n)) take({ node: n, offset: starts[k] ?? 0, end: starts[k + 1] ?? text.length }, text);
     });
     return { sets, rejections };
   }
@@ -146,7 +151,7 @@ export function parseOmmXml(text: string, file: string): ParseResult {
     }
     const node = (parser.parse(chunk) as XmlNode)['omm'];
     const first = Array.isArray(node) ? (node[0] as unknown) : undefined;
-    if (isNode(first)) take({ node: first, offset: start }, text);
+    if (isNode(first)) take({ node: first, offset: start, end }, text);
   }
   if (!reported) rejections.push(syntaxRejection(file, text, 0, valid.err));
   return { sets, rejections };
