@@ -115,23 +115,35 @@ export class Sgp4Trajectory implements Trajectory {
   readonly objectId: string;
   readonly span = null;
   readonly epoch: Instant;
-  readonly satrec: SatRec;
-  /** Set when the element set cannot even be initialised (e.g. eccentricity ≥ 1). */
-  readonly initFailure: FailureReason | null;
+  private rec: SatRec | null = null;
+  private failure: FailureReason | null | undefined = undefined;
 
   constructor(readonly elements: ElementSet) {
     this.objectId = elements.objectId;
     this.epoch = elements.epoch;
-    this.satrec = makeSatrec(elements);
-    this.initFailure =
-      domainFailure(elements) ?? (this.satrec.error ? reasonForSgp4Code(this.satrec.error) : null);
+  }
+
+  /** The SGP4 record, initialised on first use (most catalogue objects of a run never need it). */
+  get satrec(): SatRec {
+    if (!this.rec) {
+      this.rec = makeSatrec(this.elements);
+      this.failure ??= domainFailure(this.elements) ?? (this.rec.error ? reasonForSgp4Code(this.rec.error) : null);
+    }
+    return this.rec;
+  }
+
+  /** Set when the element set cannot even be initialised (e.g. eccentricity ≥ 1). */
+  get initFailure(): FailureReason | null {
+    if (this.failure === undefined) void this.satrec;
+    return this.failure ?? null;
   }
 
   /** State at minutes from epoch, the propagator's native time argument. */
   stateAtMinutesInto(tsince: number, out: Float64Array, offset: number): FailureReason | null {
-    if (this.initFailure) return this.initFailure;
-    const pv = sgp4(this.satrec, tsince);
-    if (!pv) return reasonForSgp4Code(this.satrec.error);
+    const rec = this.rec ?? this.satrec;
+    if (this.failure) return this.failure;
+    const pv = sgp4(rec, tsince);
+    if (!pv) return reasonForSgp4Code(rec.error);
     const p = pv.position, v = pv.velocity;
     // NaN never compares equal to itself; a NaN state must not reach screening as a position.
     if (p.x !== p.x || v.x !== v.x) return 'bad-elements';

@@ -7,7 +7,7 @@ import { buildStateGrid, gridStepMs, type StateGrid } from './primaryGrid.js';
 import { candidateRegions, type FilterStats, type Region } from './pairFilter.js';
 import { findEncounters, PropagationError } from './refine.js';
 import { volumeBoundKm } from './geometry.js';
-import { R_EARTH_WGS72 } from '../units.js';
+import { MU_EARTH_WGS72 } from '../units.js';
 import type { Encounter, FlaggedObject, ScreeningVolume } from './types.js';
 
 /** Spacing of the sampled mean elements of the filter model (min): 12 h keeps ε honest (tested). */
@@ -128,7 +128,7 @@ export class ScreeningSession {
       return [];
     }
     const { start, end } = this.settings;
-    const regions = candidateRegions(grid, ms, d, start, end, this.stats);
+    const regions = candidateRegions(grid, ms, d, start, end, this.stats, mp);
     if (regions.length === 0) return [];
     const minPeriodMs = Math.min(p.periodMin, s.periodMin) * 60_000;
     const step = Math.min(REFINE_MAX_STEP_MS, minPeriodMs / 16);
@@ -142,6 +142,7 @@ export class ScreeningSession {
       volume: this.settings.volume,
       start,
       end,
+      minPeriodMin: Math.min(p.periodMin, s.periodMin),
     };
     const out: Encounter[] = [];
     try {
@@ -165,7 +166,7 @@ export class ScreeningSession {
 }
 
 /**
- * Radius band of an SGP4 object from its initialised mean elements, padded so that no
+ * Radius band of an SGP4 object from its element set, padded so that no
  * osculating radius during a screening week can fall outside: 60 km covers SGP4's short-period
  * J2 terms (≤ ~20 km measured in LEO, see orbitModel) plus a week of drag decay at B* ≤ 0.01;
  * 1 % of a covers lunar–solar changes of e for deep-space orbits (≤ ~1e-3 per week).
@@ -173,9 +174,14 @@ export class ScreeningSession {
  */
 function coarseRadiusBand(o: ScreeningObject): [number, number] | null {
   const tr = o.trajectory;
-  if (!(tr instanceof Sgp4Trajectory) || tr.initFailure) return null;
-  const a = tr.satrec.a * R_EARTH_WGS72;
-  const e = tr.satrec.ecco;
+  if (!(tr instanceof Sgp4Trajectory)) return null;
+  const es = tr.elements;
+  if (!(es.meanMotion > 0 && es.eccentricity >= 0 && es.eccentricity < 1)) return null;
+  // Kepler's third law on the (Kozai) mean motion: differs from SGP4's recovered a by
+  // O(J2) ≈ 1e-3·a, inside the pad; no SGP4 initialisation is needed for this test.
+  const nRadS = (es.meanMotion * 2 * Math.PI) / 86_400;
+  const a = Math.cbrt(MU_EARTH_WGS72 / (nRadS * nRadS));
+  const e = es.eccentricity;
   const pad = COARSE_RADIUS_PAD_KM + COARSE_RADIUS_PAD_FRACTION * a;
   return [a * (1 - e) - pad, a * (1 + e) + pad];
 }

@@ -1,6 +1,8 @@
 import type { Instant } from '../time/instant.js';
 import type { OrbitModel } from './orbitModel.js';
 import type { StateGrid } from './primaryGrid.js';
+import { TRACK_STRIDE } from './planarTrack.js';
+import { secondaryPlaneWindows, type Windows } from './secondaryWindows.js';
 
 /**
  * Candidate time regions of one primary–secondary pair, by two conservative filters:
@@ -23,13 +25,26 @@ const GRID_EPS_KM = 0.01;
 /** Rate bound of the secondary's plane normal (rad/s): J2 nodal regression ≤ ~1e-6 rad/s. */
 const NORMAL_RATE_BOUND = 2e-6;
 /** Grid points per linearly interpolated block of the secondary's plane normal. */
-const NORMAL_BLOCK = 64;
+const NORMAL_BLOCK = 256;
 /** Bound of the normal's interpolation error times the radius (km); actual ≤ ~1e-3 km. */
 const NORMAL_INTERP_KM = 0.05;
+/** Bound of the primary's acceleration (km/s²): μ/(6300 km)² = 0.01004, plus 10 % for J2 and drag. */
+const ACCEL_BOUND_KM_S2 = 0.011;
 /** Step inside regions where the distance bound is already below D (ms). */
 const INSIDE_STEP_MS = 10_000;
 
 export type Region = [number, number];
+
+/** Appends [a, b] ∩ [lo, hi] to sorted regions, merging with the last one when they touch. */
+function pushRegion(regions: Region[], a: number, b: number, lo: number, hi: number): void {
+  if (a < lo) a = lo;
+  if (b > hi) b = hi;
+  if (b < a) return;
+  const last = regions[regions.length - 1];
+  if (last && last[1] >= a) {
+    if (b > last[1]) last[1] = b;
+  } else regions.push([a, b]);
+}
 
 export interface FilterStats {
   planeVisits: number;
@@ -43,8 +58,22 @@ export function candidateRegions(
   start: Instant,
   end: Instant,
   stats?: FilterStats,
+  p?: OrbitModel | null,
 ): Region[] {
-  const planeRegions = s.hasPlane ? planeFilter(grid, s, dKm, start, end, stats) : [[start, end] as Region];
+  // Filter 1b first (cheapest, most selective): the secondary must be near the primary's mean
+  // plane. The primary's true position is within ε_P of that plane, the secondary's within ε_S
+  // of its model. Then filter 1 runs only inside those windows.
+  const w = p ? secondaryPlaneWindows(s, p, dKm + s.epsKm + p.epsKm + NORMAL_INTERP_KM, start, end) : null;
+  let planeRegions: Region[];
+  if (!s.hasPlane) planeRegions = w ? toRegions(w) : [[start, end]];
+  else if (w) {
+    planeRegions = [];
+    for (let k = 0; k < w.length; k += 2) {
+      const a = Math.max(start, w[k]!), b = Math.min(end, w[k + 1]!);
+      if (b >= a) planeWindows(grid, s, dKm, a as Instant, b as Instant, stats, planeRegions);
+    }
+    planeRegions = intersect(planeRegions, w);
+  } else planeRegions = planeWindows(grid, s, dKm, start, end, stats);
   const out: Region[] = [];
   const pos = new Float64Array(6);
   const lRate = grid.vMaxKmS + s.vMaxKmS;
@@ -86,29 +115,39 @@ function planeFilter(
   const hS = h / 1000;
   const rMax = grid.maxRadiusKm();
   // The secondary's normal is evaluated every NORMAL_BLOCK grid points and interpolated
-  // linearly; the error is ≤ |n̈|·Δ²/8 ≤ (2e-6 rad/s)²·Δ²/8, times r_P (well under NORMAL_INTERP_KM).
+  // linearly; the error is ≤ |n̈|·Δ²/8 ≤ (2e-6 rad/s)²·Δ²/8, times r_P (under NORMAL_INTERP_KM).
   const thr = dKm + s.epsKm + GRID_EPS_KM + NORMAL_INTERP_KM;
-  // |dg/dt| ≤ |v_P| + |ṅ_S|·|r_P|.
-  const gdot = grid.vMaxKmS * 1.001 + NORMAL_RATE_BOUND * rMax;
+  // Second-order skip: g(t+τ) ≥ |g| − |ġ|τ − ½·G·τ², where ġ = n_S·v_P + ṅ_S·r_P is known at
+  // the grid point up to NORMAL_RATE_BOUND·r_P, and G bounds |g̈| ≤ |a_P| + 2|ṅ_S||v_P| + |n̈_S||r_P|
+  // (|a_P| ≤ μ/r_min², taken as the gravity at 6300 km with a 10 % margin for J2 and drag).
+  const gdotPad = NORMAL_RATE_BOUND * rMax;
+  const G = ACCEL_BOUND_KM_S2 + 2 * NORMAL_RATE_BOUND * grid.vMaxKmS + 1e-11 * rMax;
   const regions: Region[] = [];
-  const n0 = new Float64Array(3), n1 = new Float64Array(3);
-  let block = -1;
   const x = grid.states;
+  let n0x = 0, n0y = 0, n0z = 0, dnx = 0, dny = 0, dnz = 0;
+  const nrm = new Float64Array(6);
+  let block = -1;
   const jStart = Math.max(0, Math.floor((start - grid.start) / h));
   const jEnd = Math.min(grid.count - 1, Math.ceil((end - grid.start) / h));
+  let visits = 0;
   let j = jStart;
   while (j <= jEnd) {
-    const blk = Math.floor(j / NORMAL_BLOCK);
+    const blk = (j / NORMAL_BLOCK) | 0;
     if (blk !== block) {
       block = blk;
-      s.normalInto((grid.start + blk * NORMAL_BLOCK * h) as Instant, n0, 0);
-      s.normalInto((grid.start + (blk + 1) * NORMAL_BLOCK * h) as Instant, n1, 0);
+      s.normalInto((grid.start + blk * NORMAL_BLOCK * h) as Instant, nrm, 0);
+      s.normalInto((grid.start + (blk + 1) * NORMAL_BLOCK * h) as Instant, nrm, 3);
+      n0x = nrm[0]!; n0y = nrm[1]!; n0z = nrm[2]!;
+      dnx = (nrm[3]! - n0x) / NORMAL_BLOCK; dny = (nrm[4]! - n0y) / NORMAL_BLOCK; dnz = (nrm[5]! - n0z) / NORMAL_BLOCK;
     }
-    const w = (j - blk * NORMAL_BLOCK) / NORMAL_BLOCK;
-    const nx = n0[0]! + w * (n1[0]! - n0[0]!), ny = n0[1]! + w * (n1[1]! - n0[1]!), nz = n0[2]! + w * (n1[2]! - n0[2]!);
-    const g = Math.abs(nx * x[j * 6]! + ny * x[j * 6 + 1]! + nz * x[j * 6 + 2]!);
-    if (stats) stats.planeVisits++;
-    if (g <= thr + gdot * hS) {
+    const w = j - blk * NORMAL_BLOCK;
+    const nx = n0x + w * dnx, ny = n0y + w * dny, nz = n0z + w * dnz;
+    const o = j * 6;
+    const g = Math.abs(nx * x[o]! + ny * x[o + 1]! + nz * x[o + 2]!);
+    visits++;
+    const gap = g - thr;
+    const gdot = Math.abs(nx * x[o + 3]! + ny * x[o + 4]! + nz * x[o + 5]!) + gdotPad;
+    if (gap <= gdot * hS + 0.5 * G * hS * hS) {
       const t = grid.start + j * h;
       const a = Math.max(start, t - h), b = Math.min(end, t + h);
       const last = regions[regions.length - 1];
@@ -116,8 +155,121 @@ function planeFilter(
       else regions.push([a, b]);
       j++;
     } else {
-      j += Math.max(1, Math.floor((g - thr) / gdot / hS));
+      // Largest τ with |ġ|τ + ½Gτ² ≤ gap: no zero of |g| − thr before t + τ.
+      const tau = (2 * gap) / (gdot + Math.sqrt(gdot * gdot + 2 * G * gap));
+      j += Math.max(1, Math.floor(tau / hS));
+    }
+  }
+  if (stats) stats.planeVisits += visits;
+  return regions;
+}
+
+const NRM = new Float64Array(3);
+
+/** Slack for radius and out-of-plane distance between grid points (km): ≤ v²h²/(8r) ≪ 1 km. */
+const BETWEEN_POINTS_KM = 1;
+
+/**
+ * Filter 1 in closed form, block by block of the primary's planar track. In a block,
+ * g = n_S·r_P = ρ·A·cos(u − φ) + z·(n_S·n̂_P) + ρ·(n_S − n_S,c)·(in-plane), where A, φ come from
+ * the secondary's normal n_S,c at the block centre. So |g| ≤ thr needs
+ * |cos(u − φ)| ≤ (thr + |z|max + ρmax·δn + pad)/((ρmin − pad)·A): two windows of u around
+ * φ ± π/2 per revolution. u is monotonic, so each window maps to grid indices by bisection; the
+ * time span between those grid points contains every instant with u inside the window.
+ */
+export function planeWindows(
+  grid: StateGrid,
+  s: OrbitModel,
+  dKm: number,
+  start: Instant,
+  end: Instant,
+  stats?: FilterStats,
+  regions: Region[] = [],
+): Region[] {
+  const track = grid.track();
+  const B = track.blockSize, u = track.u, basis = track.basis;
+  const h = grid.stepMs;
+  const thr = dKm + s.epsKm + GRID_EPS_KM + NORMAL_INTERP_KM;
+  // The normal at the block centre differs from the normal anywhere in the block by ≤ rate·(half block + h).
+  const dn = NORMAL_RATE_BOUND * ((B / 2 + 1) * h) / 1000;
+  const nrm = NRM;
+  const bStart = Math.max(0, Math.floor((start - grid.start) / h / B));
+  const bEnd = Math.min(track.blocks - 1, Math.floor((end - grid.start) / h / B));
+  for (let blk = bStart; blk <= bEnd; blk++) {
+    if (stats) stats.planeVisits++;
+    const j0 = blk * B;
+    const jLast = Math.min(grid.count - 1, j0 + B); // inclusive
+    const tc = grid.start + ((j0 + jLast) / 2) * h;
+    s.tabledNormalInto(tc as Instant, nrm, 0);
+    const o = blk * TRACK_STRIDE;
+    const a = nrm[0]! * basis[o]! + nrm[1]! * basis[o + 1]! + nrm[2]! * basis[o + 2]!;
+    const b = nrm[0]! * basis[o + 3]! + nrm[1]! * basis[o + 4]! + nrm[2]! * basis[o + 5]!;
+    const A = Math.hypot(a, b);
+    const rhoMin = basis[o + 6]! - BETWEEN_POINTS_KM, rhoMax = basis[o + 7]!, zMax = basis[o + 8]!;
+    const c = (thr + zMax + BETWEEN_POINTS_KM + rhoMax * dn) / (rhoMin * A);
+    const t0 = grid.start + j0 * h, t1 = grid.start + jLast * h;
+    if (!(c < 1)) {
+      pushRegion(regions, t0, t1, start, end);
+      continue;
+    }
+    const alpha = Math.asin(c);
+    const ub = blk * (B + 1);
+    const uLo = u[ub]!, uHi = u[ub + (jLast - j0)]!;
+    const phi = Math.atan2(b, a) + Math.PI / 2;
+    const kFirst = Math.ceil((uLo - alpha - phi) / Math.PI);
+    const kLast = Math.floor((uHi + alpha - phi) / Math.PI);
+    for (let k = kFirst; k <= kLast; k++) {
+      const wLo = phi + k * Math.PI - alpha, wHi = phi + k * Math.PI + alpha;
+      // last grid index with u ≤ wLo, first with u ≥ wHi (clamped to the block)
+      const iLo = lastAtOrBelow(u, ub, jLast - j0, wLo);
+      const iHi = firstAtOrAbove(u, ub, jLast - j0, wHi);
+      pushRegion(regions, t0 + iLo * h, t0 + iHi * h, start, end);
     }
   }
   return regions;
+}
+
+/** Largest i in [0, n] with u[base + i] ≤ x, or 0. */
+function lastAtOrBelow(u: Float64Array, base: number, n: number, x: number): number {
+  if (u[base]! > x) return 0;
+  let lo = 0, hi = n;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1;
+    if (u[base + mid]! <= x) lo = mid;
+    else hi = mid - 1;
+  }
+  return lo;
+}
+
+/** Smallest i in [0, n] with u[base + i] ≥ x, or n. */
+function firstAtOrAbove(u: Float64Array, base: number, n: number, x: number): number {
+  if (u[base + n]! < x) return n;
+  let lo = 0, hi = n;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (u[base + mid]! >= x) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
+}
+
+const toRegions = (w: Windows): Region[] => {
+  const out: Region[] = [];
+  for (let k = 0; k < w.length; k += 2) out.push([w[k]!, w[k + 1]!]);
+  return out;
+};
+
+/** Intersection of sorted disjoint regions with sorted disjoint flat windows. */
+function intersect(regions: Region[], w: Windows): Region[] {
+  const out: Region[] = [];
+  let i = 0, k = 0;
+  while (i < regions.length && k < w.length) {
+    const [a, b] = regions[i]!;
+    const c = w[k]!, d = w[k + 1]!;
+    const lo = Math.max(a, c), hi = Math.min(b, d);
+    if (lo <= hi) out.push([lo, hi]);
+    if (b < d) i++;
+    else k += 2;
+  }
+  return out;
 }

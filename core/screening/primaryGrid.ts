@@ -1,5 +1,6 @@
 import type { Instant } from '../time/instant.js';
 import type { FailureReason, Trajectory } from '../propagation/trajectory.js';
+import { buildPlanarTrack, type PlanarTrack } from './planarTrack.js';
 
 /**
  * Exact states of one object on a uniform time grid, interpolated by cubic Hermite (position
@@ -18,6 +19,12 @@ export class StateGrid {
   ) {}
 
   private rMax = -1;
+  private planar: PlanarTrack | null = null;
+  /** The grid in block-wise orbit-plane coordinates, built on first use. */
+  track(): PlanarTrack {
+    return (this.planar ??= buildPlanarTrack(this));
+  }
+
   /** Upper bound of |r| over the grid (km), computed once. */
   maxRadiusKm(): number {
     if (this.rMax < 0) {
