@@ -102,15 +102,26 @@ export function importCdmFile(
   const enc = encounterFromCdm(cdm);
   const hbr = (o: CdmObject) =>
     o.additional.areaPc !== undefined ? hardBodyRadiusFromAreaPc(o.additional.areaPc) : (hbrM ?? null);
-  const covOf = (o: CdmObject) => o.covariance.usable ?? o.covariance.matrix;
+  // A covariance the reader judged not PSD beyond rounding has no usable matrix: it is doubtful,
+  // and Pc falls back to maximum Pc (DESIGN.md risk requirements).
+  const doubtful = (o: CdmObject) =>
+    o.covariance.usable ? null : (o.covariance.note ?? `${o.metadata.object} covariance not positive semi-definite`);
   const risk = new RiskContext(db).assess(enc, {
-    primaryRtnM2: covOf(cdm.object1),
-    secondaryRtnM2: covOf(cdm.object2),
+    primaryRtnM2: cdm.object1.covariance.usable,
+    secondaryRtnM2: cdm.object2.covariance.usable,
+    primaryDoubtful: doubtful(cdm.object1),
+    secondaryDoubtful: doubtful(cdm.object2),
     hbrPrimaryM: hbr(cdm.object1),
     hbrSecondaryM: hbr(cdm.object2),
   });
-  const notes = [...parsed.repairs, ...[cdm.object1, cdm.object2].flatMap((o) => (o.covariance.note ? [o.covariance.note] : []))];
-  const riskWithNotes = { ...risk, warnings: [...new Set([...risk.warnings, ...notes])] };
+  // The reader's repair notes already carry each covariance note (with file:line); add a
+  // covariance note only where no repair note ends with it.
+  const covNotes = [cdm.object1, cdm.object2].flatMap((o) => (o.covariance.note ? [o.covariance.note] : []));
+  const notes = [...parsed.repairs, ...covNotes.filter((n) => !parsed.repairs.some((r) => r.endsWith(n)))];
+  const riskWithNotes = {
+    ...risk,
+    warnings: [...new Set([...risk.warnings.filter((w) => !notes.some((n) => n.endsWith(w))), ...notes])],
+  };
   const rv = cdm.relative;
   const volume =
     rv.screenVolumeShape === 'ELLIPSOID' && rv.screenVolumeX && rv.screenVolumeY && rv.screenVolumeZ

@@ -44,7 +44,9 @@ export function runToJson(run: RunRecord, flagged: readonly FlaggedObject[] = ru
     thresholdKm: v.kind === 'sphere' ? v.radiusKm : null,
     ...(v.kind === 'rtn-ellipsoid' ? { volumeRtnKm: [v.rKm, v.tKm, v.nKm] } : {}),
     objects: run.objectCount,
-    primaries: s.primaries === 'all' ? 'all' : [...s.primaries],
+    // All-vs-all: every object is a primary; the list stays empty and allObjects says so.
+    primaries: s.primaries === 'all' ? [] : [...s.primaries],
+    allObjects: s.primaries === 'all',
     flagged: flagged.map((f) => ({ id: f.id, reason: f.reason })),
     status: run.status,
     catalogFingerprint: run.catalogFingerprint,

@@ -30,19 +30,27 @@ export class RiskContext {
     return h;
   }
 
-  private input(id: string, epoch: number, cdmRtnM2: Matrix | null | undefined): CovarianceInput {
+  private input(id: string, epoch: number, cdmRtnM2: Matrix | null | undefined, doubtful?: string | null): CovarianceInput {
     // History up to the set used in the screening (later sets did not exist for it).
     const h = this.historyOf(id).filter((s) => s.epoch <= epoch + 1);
-    return { cdmRtnM2: cdmRtnM2 ?? null, history: h, elements: h[h.length - 1] ?? null };
+    return { cdmRtnM2: cdmRtnM2 ?? null, cdmDoubtfulNote: doubtful ?? null, history: h, elements: h[h.length - 1] ?? null };
   }
 
   assess(
     e: Encounter,
-    cdm?: { primaryRtnM2?: Matrix | null; secondaryRtnM2?: Matrix | null; hbrPrimaryM?: number | null; hbrSecondaryM?: number | null },
+    cdm?: {
+      primaryRtnM2?: Matrix | null;
+      secondaryRtnM2?: Matrix | null;
+      /** notes of CDM covariances judged unusable (then maximum Pc) */
+      primaryDoubtful?: string | null;
+      secondaryDoubtful?: string | null;
+      hbrPrimaryM?: number | null;
+      hbrSecondaryM?: number | null;
+    },
   ): RiskAssessment {
     return assessEncounter(e, {
-      primary: this.input(e.primary, e.primaryEpoch, cdm?.primaryRtnM2),
-      secondary: this.input(e.secondary, e.secondaryEpoch, cdm?.secondaryRtnM2),
+      primary: this.input(e.primary, e.primaryEpoch, cdm?.primaryRtnM2, cdm?.primaryDoubtful),
+      secondary: this.input(e.secondary, e.secondaryEpoch, cdm?.secondaryRtnM2, cdm?.secondaryDoubtful),
       hbrPrimaryM: cdm?.hbrPrimaryM ?? getObject(this.db, e.primary)?.hardBodyRadiusM ?? null,
       hbrSecondaryM: cdm?.hbrSecondaryM ?? getObject(this.db, e.secondary)?.hardBodyRadiusM ?? null,
       ...(this.thresholds ? { thresholds: this.thresholds } : {}),

@@ -8,7 +8,7 @@ import { toIso } from '../../core/time/instant.js';
 import { openDatabase, eventsOfRun } from '../../db/index.js';
 import { screenAndStore } from '../../app/screen.js';
 import { runReportHtml } from '../../app/report.js';
-import { optString, parseArgs } from '../args.js';
+import { optNumber, optString, parseArgs } from '../args.js';
 import { eventTable, progressReporter } from '../output.js';
 import { importOneFile } from './import.js';
 
@@ -24,6 +24,7 @@ export async function demoCommand(argv: readonly string[]): Promise<number> {
   const args = parseArgs(argv, { valued: ['out', 'size', 'workers'] });
   if (args.positional.length > 0) throw new KeepclearError('BAD_ARGUMENT', `unexpected argument "${args.positional[0]}"`);
   const dir = resolve(optString(args, 'out') ?? DEFAULT_DIR);
+  const workers = optNumber(args, 'workers', (x) => Number.isInteger(x) && x >= 0 && x <= 64, 'a whole number 0..64');
   const sizeText = optString(args, 'size');
   const size = sizeText === undefined ? undefined : Number(sizeText);
   if (size !== undefined && !(Number.isInteger(size) && size >= 100 && size <= 200_000)) {
@@ -53,10 +54,9 @@ export async function demoCommand(argv: readonly string[]): Promise<number> {
       process.stderr.write(`demo: imported ${f}: ${c.imported} new, ${c.updated} updated, ${c.rejected} rejected\n`);
     }
     const fleetIds = scenario.fleet.map((f) => f.objectId);
-    const workersText = optString(args, 'workers');
     const { run } = await screenAndStore(db, {
       settings: { start: scenario.start, end: scenario.end, volume: { kind: 'sphere', radiusKm: 5 }, primaries: fleetIds },
-      ...(workersText !== undefined ? { workers: Number(workersText) } : {}),
+      ...(workers !== undefined ? { workers } : {}),
       onProgress: progressReporter('demo: screening'),
     });
     const events = eventsOfRun(db, run.id);

@@ -32,6 +32,11 @@ export interface CovarianceInput {
   readonly elements?: ElementSet | null;
   /** regime when no element set is at hand (e.g. an ephemeris object) */
   readonly regime?: Regime | null;
+  /**
+   * Set when a received CDM covariance was judged unusable (not PSD beyond rounding): the
+   * message's covariance takes precedence but is doubtful, so maximum Pc is used.
+   */
+  readonly cdmDoubtfulNote?: string | null;
 }
 
 export interface AssessInputs {
@@ -62,6 +67,9 @@ function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch:
       notes: c.note ? [c.note] : [],
     };
   };
+  if (input.cdmDoubtfulNote) {
+    return { inertialM2: null, source: 'cdm (not PSD)', doubtful: true, notes: [input.cdmDoubtfulNote] };
+  }
   if (input.cdmRtnM2) return graded(covarianceFromCdm(input.cdmRtnM2, state).rtnM2, 'cdm');
   if (input.history) {
     const h = covarianceFromHistory(input.history, tca);

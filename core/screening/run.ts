@@ -48,6 +48,9 @@ export async function runScreening(
   }
   const win: WindowSettings = { start: settings.start, end: settings.end, volume: settings.volume };
   const nWorkers = options.workers ?? availableParallelism();
+  if (!Number.isInteger(nWorkers) || nWorkers < 0) {
+    throw new KeepclearError('BAD_ARGUMENT', `worker count must be a whole number ≥ 0, got ${nWorkers}`);
+  }
   const control = new Int32Array(new SharedArrayBuffer(8));
   const total = elementSets.length;
 
