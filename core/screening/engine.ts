@@ -4,7 +4,7 @@ import type { FailureReason, Trajectory } from '../propagation/trajectory.js';
 import { Sgp4Trajectory } from '../propagation/sgp4.js';
 import { buildSgp4Model, exactModel, type OrbitModel } from './orbitModel.js';
 import { buildStateGrid, gridStepMs, type StateGrid } from './primaryGrid.js';
-import { candidateRegions, type FilterStats, type Region } from './pairFilter.js';
+import { candidateRegions, type FilterStats, type Regions } from './pairFilter.js';
 import { findEncounters, PropagationError } from './refine.js';
 import { volumeBoundKm } from './geometry.js';
 import { MU_EARTH_WGS72 } from '../units.js';
@@ -133,7 +133,7 @@ export class ScreeningSession {
     const minPeriodMs = Math.min(p.periodMin, s.periodMin) * 60_000;
     const step = Math.min(REFINE_MAX_STEP_MS, minPeriodMs / 16);
     const merged = expandAndMerge(regions, step, start, end);
-    this.stats.regions += merged.length;
+    this.stats.regions += merged.length / 2;
     const ctx = {
       p: p.trajectory,
       s: s.trajectory,
@@ -146,7 +146,8 @@ export class ScreeningSession {
     };
     const out: Encounter[] = [];
     try {
-      for (const [a, b] of merged) {
+      for (let r = 0; r < merged.length; r += 2) {
+        const a = merged[r]!, b = merged[r + 1]!;
         const found = findEncounters(ctx, a, b, step);
         this.stats.sgp4Evaluations += 2 * (Math.ceil((b - a) / step) + 30 * found.length);
         for (const e of found) {
@@ -188,15 +189,15 @@ function coarseRadiusBand(o: ScreeningObject): [number, number] | null {
 
 /** Pads each region by one refinement step on both sides (so a minimum at a region edge is
  *  bracketed), clips to the window and merges overlaps. */
-export function expandAndMerge(regions: Region[], pad: number, start: number, end: number): Region[] {
-  const sorted = regions
-    .map(([a, b]) => [Math.max(start, a - pad), Math.min(end, b + pad)] as Region)
-    .sort((x, y) => x[0] - y[0]);
-  const out: Region[] = [];
-  for (const r of sorted) {
-    const last = out[out.length - 1];
-    if (last && r[0] <= last[1]) last[1] = Math.max(last[1], r[1]);
-    else out.push([r[0], r[1]]);
+export function expandAndMerge(regions: Regions, pad: number, start: number, end: number): Regions {
+  // Input regions are sorted and disjoint, so padding keeps them sorted: merge in one pass.
+  const out: Regions = [];
+  for (let r = 0; r < regions.length; r += 2) {
+    const a = Math.max(start, regions[r]! - pad), b = Math.min(end, regions[r + 1]! + pad);
+    const n = out.length;
+    if (n > 0 && a <= out[n - 1]!) {
+      if (b > out[n - 1]!) out[n - 1] = b;
+    } else out.push(a, b);
   }
   return out;
 }

@@ -5,45 +5,42 @@ import { TRACK_STRIDE } from './planarTrack.js';
 import { secondaryPlaneWindows, type Windows } from './secondaryWindows.js';
 
 /**
- * Candidate time regions of one primary–secondary pair, by two conservative filters:
+ * Candidate time regions of one primary–secondary pair, by conservative filters (the time and
+ * orbit-path filters of Hoots, Crawford & Roehrich 1984, in closed form per block):
  *
- * 1. Orbit-plane filter: an approach within D requires the primary to be within D + ε_S of the
- *    secondary's mean orbit plane (the secondary is on its plane to within ε_S, its model error).
- *    g(t) = n_S(t)·r_P(t) is scanned on the primary's exact grid, skipping ahead by
- *    (|g| − thr)/ġ_max where ġ_max ≥ |v_P| + |ṅ_S||r_P| bounds |dg/dt|: no root is skipped.
- *    (Hoots, Crawford & Roehrich 1984, the orbit-path/time filters, in a time-scan form.)
- * 2. Distance filter inside those regions: |r_P − r_S,model| − ε_S − ε_grid is a lower bound
- *    of the true distance; it changes no faster than v_P,max + v_S,max, so while it stays
- *    above D the scan advances by (bound − D)/(v_P,max + v_S,max).
+ * 1b. The secondary must be within D + ε_P + ε_S of the primary's mean plane
+ *     (secondaryWindows.ts).
+ * 1.  Inside those windows, the primary (exact grid) must be within D + ε_S of the secondary's
+ *     mean plane (planeWindows below).
+ * 2.  Inside what is left, |r_P − r_S,model| − ε_S − ε_grid is a lower bound of the true
+ *     distance; it changes no faster than v_P,max + v_S,max, so while it stays above D the scan
+ *     advances by (bound − D)/(v_P,max + v_S,max).
  *
- * Nearly coplanar pairs (same shell, same plane) pass filter 1 everywhere and are handled by
- * filter 2 alone, which stays cheap because their separation changes slowly.
+ * Nearly coplanar pairs (same shell, same plane) pass the plane filters everywhere and are
+ * handled by filter 2 alone, which stays cheap because their separation changes slowly.
  */
 
 /** Interpolation error of the primary's Hermite grid, with a wide margin (see StateGrid). */
 const GRID_EPS_KM = 0.01;
 /** Rate bound of the secondary's plane normal (rad/s): J2 nodal regression ≤ ~1e-6 rad/s. */
 const NORMAL_RATE_BOUND = 2e-6;
-/** Grid points per linearly interpolated block of the secondary's plane normal. */
-const NORMAL_BLOCK = 256;
-/** Bound of the normal's interpolation error times the radius (km); actual ≤ ~1e-3 km. */
+/** Bound of the normal's interpolation error times the radius (km); see tabledNormalInto. */
 const NORMAL_INTERP_KM = 0.05;
-/** Bound of the primary's acceleration (km/s²): μ/(6300 km)² = 0.01004, plus 10 % for J2 and drag. */
-const ACCEL_BOUND_KM_S2 = 0.011;
 /** Step inside regions where the distance bound is already below D (ms). */
 const INSIDE_STEP_MS = 10_000;
 
-export type Region = [number, number];
+/** Time regions as a flat list [a0, b0, a1, b1, …] (ms), sorted and disjoint: no tuple per region. */
+export type Regions = number[];
 
 /** Appends [a, b] ∩ [lo, hi] to sorted regions, merging with the last one when they touch. */
-function pushRegion(regions: Region[], a: number, b: number, lo: number, hi: number): void {
+function pushRegion(regions: Regions, a: number, b: number, lo: number, hi: number): void {
   if (a < lo) a = lo;
   if (b > hi) b = hi;
   if (b < a) return;
-  const last = regions[regions.length - 1];
-  if (last && last[1] >= a) {
-    if (b > last[1]) last[1] = b;
-  } else regions.push([a, b]);
+  const n = regions.length;
+  if (n > 0 && regions[n - 1]! >= a) {
+    if (b > regions[n - 1]!) regions[n - 1] = b;
+  } else regions.push(a, b);
 }
 
 export interface FilterStats {
@@ -59,13 +56,13 @@ export function candidateRegions(
   end: Instant,
   stats?: FilterStats,
   p?: OrbitModel | null,
-): Region[] {
+): Regions {
   // Filter 1b first (cheapest, most selective): the secondary must be near the primary's mean
   // plane. The primary's true position is within ε_P of that plane, the secondary's within ε_S
   // of its model. Then filter 1 runs only inside those windows.
   const w = p ? secondaryPlaneWindows(s, p, dKm + s.epsKm + p.epsKm + NORMAL_INTERP_KM, start, end) : null;
-  let planeRegions: Region[];
-  if (!s.hasPlane) planeRegions = w ? toRegions(w) : [[start, end]];
+  let planeRegions: Regions;
+  if (!s.hasPlane) planeRegions = w ?? [start, end];
   else if (w) {
     planeRegions = [];
     for (let k = 0; k < w.length; k += 2) {
@@ -74,10 +71,11 @@ export function candidateRegions(
     }
     planeRegions = intersect(planeRegions, w);
   } else planeRegions = planeWindows(grid, s, dKm, start, end, stats);
-  const out: Region[] = [];
-  const pos = new Float64Array(6);
+  const out: Regions = [];
+  const pos = POS;
   const lRate = grid.vMaxKmS + s.vMaxKmS;
-  for (const [a, b] of planeRegions) {
+  for (let r = 0; r < planeRegions.length; r += 2) {
+    const a = planeRegions[r]!, b = planeRegions[r + 1]!;
     let t = a;
     let inside = -1; // start of the current "maybe within D" run, or −1
     while (t <= b) {
@@ -93,77 +91,17 @@ export function candidateRegions(
       }
       const clear = ((lb - dKm) / lRate) * 1000;
       if (inside >= 0) {
-        out.push([inside, t]);
+        out.push(inside, t);
         inside = -1;
       }
       t += Math.max(clear, 1);
     }
-    if (inside >= 0) out.push([inside, b]);
+    if (inside >= 0) out.push(inside, b);
   }
   return out;
 }
 
-function planeFilter(
-  grid: StateGrid,
-  s: OrbitModel,
-  dKm: number,
-  start: Instant,
-  end: Instant,
-  stats?: FilterStats,
-): Region[] {
-  const h = grid.stepMs;
-  const hS = h / 1000;
-  const rMax = grid.maxRadiusKm();
-  // The secondary's normal is evaluated every NORMAL_BLOCK grid points and interpolated
-  // linearly; the error is ≤ |n̈|·Δ²/8 ≤ (2e-6 rad/s)²·Δ²/8, times r_P (under NORMAL_INTERP_KM).
-  const thr = dKm + s.epsKm + GRID_EPS_KM + NORMAL_INTERP_KM;
-  // Second-order skip: g(t+τ) ≥ |g| − |ġ|τ − ½·G·τ², where ġ = n_S·v_P + ṅ_S·r_P is known at
-  // the grid point up to NORMAL_RATE_BOUND·r_P, and G bounds |g̈| ≤ |a_P| + 2|ṅ_S||v_P| + |n̈_S||r_P|
-  // (|a_P| ≤ μ/r_min², taken as the gravity at 6300 km with a 10 % margin for J2 and drag).
-  const gdotPad = NORMAL_RATE_BOUND * rMax;
-  const G = ACCEL_BOUND_KM_S2 + 2 * NORMAL_RATE_BOUND * grid.vMaxKmS + 1e-11 * rMax;
-  const regions: Region[] = [];
-  const x = grid.states;
-  let n0x = 0, n0y = 0, n0z = 0, dnx = 0, dny = 0, dnz = 0;
-  const nrm = new Float64Array(6);
-  let block = -1;
-  const jStart = Math.max(0, Math.floor((start - grid.start) / h));
-  const jEnd = Math.min(grid.count - 1, Math.ceil((end - grid.start) / h));
-  let visits = 0;
-  let j = jStart;
-  while (j <= jEnd) {
-    const blk = (j / NORMAL_BLOCK) | 0;
-    if (blk !== block) {
-      block = blk;
-      s.normalInto((grid.start + blk * NORMAL_BLOCK * h) as Instant, nrm, 0);
-      s.normalInto((grid.start + (blk + 1) * NORMAL_BLOCK * h) as Instant, nrm, 3);
-      n0x = nrm[0]!; n0y = nrm[1]!; n0z = nrm[2]!;
-      dnx = (nrm[3]! - n0x) / NORMAL_BLOCK; dny = (nrm[4]! - n0y) / NORMAL_BLOCK; dnz = (nrm[5]! - n0z) / NORMAL_BLOCK;
-    }
-    const w = j - blk * NORMAL_BLOCK;
-    const nx = n0x + w * dnx, ny = n0y + w * dny, nz = n0z + w * dnz;
-    const o = j * 6;
-    const g = Math.abs(nx * x[o]! + ny * x[o + 1]! + nz * x[o + 2]!);
-    visits++;
-    const gap = g - thr;
-    const gdot = Math.abs(nx * x[o + 3]! + ny * x[o + 4]! + nz * x[o + 5]!) + gdotPad;
-    if (gap <= gdot * hS + 0.5 * G * hS * hS) {
-      const t = grid.start + j * h;
-      const a = Math.max(start, t - h), b = Math.min(end, t + h);
-      const last = regions[regions.length - 1];
-      if (last && last[1] >= a) last[1] = b;
-      else regions.push([a, b]);
-      j++;
-    } else {
-      // Largest τ with |ġ|τ + ½Gτ² ≤ gap: no zero of |g| − thr before t + τ.
-      const tau = (2 * gap) / (gdot + Math.sqrt(gdot * gdot + 2 * G * gap));
-      j += Math.max(1, Math.floor(tau / hS));
-    }
-  }
-  if (stats) stats.planeVisits += visits;
-  return regions;
-}
-
+const POS = new Float64Array(6);
 const NRM = new Float64Array(3);
 
 /** Slack for radius and out-of-plane distance between grid points (km): ≤ v²h²/(8r) ≪ 1 km. */
@@ -184,8 +122,8 @@ export function planeWindows(
   start: Instant,
   end: Instant,
   stats?: FilterStats,
-  regions: Region[] = [],
-): Region[] {
+  regions: Regions = [],
+): Regions {
   const track = grid.track();
   const B = track.blockSize, u = track.u, basis = track.basis;
   const h = grid.stepMs;
@@ -253,22 +191,16 @@ function firstAtOrAbove(u: Float64Array, base: number, n: number, x: number): nu
   return lo;
 }
 
-const toRegions = (w: Windows): Region[] => {
-  const out: Region[] = [];
-  for (let k = 0; k < w.length; k += 2) out.push([w[k]!, w[k + 1]!]);
-  return out;
-};
-
-/** Intersection of sorted disjoint regions with sorted disjoint flat windows. */
-function intersect(regions: Region[], w: Windows): Region[] {
-  const out: Region[] = [];
+/** Intersection of two sorted disjoint flat region lists. */
+function intersect(x: Regions, w: Windows): Regions {
+  const out: Regions = [];
   let i = 0, k = 0;
-  while (i < regions.length && k < w.length) {
-    const [a, b] = regions[i]!;
+  while (i < x.length && k < w.length) {
+    const a = x[i]!, b = x[i + 1]!;
     const c = w[k]!, d = w[k + 1]!;
     const lo = Math.max(a, c), hi = Math.min(b, d);
-    if (lo <= hi) out.push([lo, hi]);
-    if (b < d) i++;
+    if (lo <= hi) out.push(lo, hi);
+    if (b < d) i += 2;
     else k += 2;
   }
   return out;

@@ -13,13 +13,11 @@ import type { OrbitModel } from './orbitModel.js';
  * range in the block), an M window in closed form (Kepler's equation forward), and a time
  * window through M(t), linear in a block to ≪ 1 ms; TIME_PAD_MS covers what is left.
  */
-const BLOCK_MS = 3_600_000;
+const BLOCK_MS = 7_200_000;
 /** Bound of the drift of θ and A inside a block beyond linear-in-ends (rad). */
 const CURVE_PAD_RAD = 1e-4;
 /** Padding of each time window (ms): M(t) non-linearity, e drift and rounding. */
 const TIME_PAD_MS = 1000;
-/** Upper bound of |dω/dt| (rad/ms): J2 apsidal rate ≤ ~16°/day at the lowest LEO. */
-const ARGP_RATE_BOUND = 4e-9;
 
 export type Windows = number[]; // flat [a0, b0, a1, b1, ...], sorted, disjoint
 
@@ -57,8 +55,13 @@ function meanFromTrue(nu: number, e: number): number {
   return E - e * Math.sin(E) + k * TWO_PI;
 }
 
-/** M → ν (unwrapped the same way). */
+/**
+ * M → ν (unwrapped the same way). Near-circular orbits use the equation of the centre,
+ * ν = M + 2e·sin M + (5/4)e²·sin 2M, whose remainder ≤ (13/12)e³ ≤ 1.1e-6 rad for e < 0.01
+ * (covered by CURVE_PAD_RAD where this feeds a window bound).
+ */
 function trueFromMean(M: number, e: number): number {
+  if (e < 0.01) return M + 2 * e * Math.sin(M) + 1.25 * e * e * Math.sin(2 * M);
   const k = Math.floor((M + Math.PI) / TWO_PI);
   const m = M - k * TWO_PI;
   let E = e < 0.8 ? m : Math.PI * Math.sign(m || 1);
@@ -106,7 +109,9 @@ export function secondaryPlaneWindows(
       const beta = Math.asin(c);
       const thLo = Math.min(th0, th1) - CURVE_PAD_RAD, thHi = Math.max(th0, th1) + CURVE_PAD_RAD;
       const halfBlock = (t1 - t0) / 2;
-      const wLo = mc[4]! - ARGP_RATE_BOUND * halfBlock, wHi = mc[4]! + ARGP_RATE_BOUND * halfBlock;
+      // ω drifts secularly (J2): its range over the block is that of its end values, padded.
+      const wLo = Math.min(me0[4]!, me1[4]!, mc[4]!) - CURVE_PAD_RAD;
+      const wHi = Math.max(me0[4]!, me1[4]!, mc[4]!) + CURVE_PAD_RAD;
       const Mc = mc[5]!, Mdot = mc[6]!;
       // u range of the block (ω + ν at both ends, ν from M(t) through Kepler's equation).
       const M0 = Mc - Mdot * halfBlock, M1 = Mc + Mdot * halfBlock;
