@@ -49,7 +49,8 @@ export class ScreeningChunk {
     for (const l of layout) {
       const o = this.objects[this.byId.get(l.id)!]!;
       const g = this.session.grid(o, shared.subarray(l.offset, l.offset + l.count * 6));
-      out.push({ ...l, vMaxKmS: g ? g.vMaxKmS : -1 });
+      // A primary that decays inside the window has a shorter grid.
+      out.push({ ...l, count: g ? g.count : 0, vMaxKmS: g ? g.vMaxKmS : -1 });
     }
     return out;
   }
@@ -77,6 +78,12 @@ export class ScreeningChunk {
     for (let i = part; i < this.objects.length; i += parts) {
       if (Atomics.load(this.control, CTRL_CANCEL)) return this.result(out, true);
       const s = this.objects[i]!;
+      // Every object's propagation is checked once, so a failing one is flagged even when no
+      // pair of it survives the first filters.
+      if (this.session.validUntil(s) === null) {
+        Atomics.add(this.control, CTRL_DONE, 1);
+        continue;
+      }
       for (const { o: p, g } of prim) {
         // A pair of two primaries is screened once, from the primary listed first.
         if (primSet.has(s.id) && primIndex.get(s.id)! <= primIndex.get(p.id)!) continue;

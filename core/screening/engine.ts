@@ -14,6 +14,8 @@ import type { Encounter, FlaggedObject, ScreeningVolume } from './types.js';
 const MODEL_NODE_SPACING_MIN = 720;
 /** The filter model also covers this much outside the window, for the refinement margins (ms). */
 const MODEL_MARGIN_MS = 3_600_000;
+/** Resolution of the decay time found by bisection (ms). */
+const VALIDITY_RESOLUTION_MS = 1000;
 /** Padding of the element-set radius band (see coarseRadiusBand). */
 const COARSE_RADIUS_PAD_KM = 60;
 const COARSE_RADIUS_PAD_FRACTION = 0.01;
@@ -60,18 +62,58 @@ export class ScreeningSession {
     sgp4Evaluations: 0,
   };
 
+  private readonly validity = new Map<string, number | null>();
+  private readonly probe = new Float64Array(6);
+
   constructor(readonly settings: WindowSettings) {}
+
+  /**
+   * The last instant (≤ end + model margin) up to which the object propagates, found by
+   * bisection to VALIDITY_RESOLUTION_MS when it fails inside; null when it fails at the window
+   * start. An object that decays inside the window is flagged and screened until then.
+   */
+  validUntil(o: ScreeningObject): number | null {
+    const cached = this.validity.get(o.id);
+    if (cached !== undefined) return cached;
+    const { start, end } = this.settings;
+    const tr = o.trajectory, buf = this.probe;
+    const hi = end + MODEL_MARGIN_MS;
+    let until: number | null;
+    const atStart = tr.stateInto(start, buf, 0);
+    if (atStart) {
+      this.flag(o.id, `propagation failed: ${atStart} at the window start ${new Date(start).toISOString()}`);
+      until = null;
+    } else if (!tr.stateInto(hi as Instant, buf, 0)) {
+      until = hi;
+    } else {
+      let lo = start as number, up = hi;
+      while (up - lo > VALIDITY_RESOLUTION_MS) {
+        const mid = (lo + up) / 2;
+        if (tr.stateInto(mid as Instant, buf, 0)) up = mid;
+        else lo = mid;
+      }
+      until = lo;
+      const reason = tr.stateInto(up as Instant, buf, 0);
+      if (lo < end) {
+        this.flag(o.id, `propagation fails (${reason}) after ${new Date(lo).toISOString()}; screened until then`);
+      }
+    }
+    this.validity.set(o.id, until);
+    return until;
+  }
 
   model(o: ScreeningObject): OrbitModel | null {
     let m = this.models.get(o.id);
     if (m === undefined) {
       const tr = o.trajectory;
-      if (tr instanceof Sgp4Trajectory) {
+      const until = this.validUntil(o);
+      if (until === null) m = 'bad-elements';
+      else if (tr instanceof Sgp4Trajectory) {
         m = tr.initFailure ?? buildSgp4Model(
           tr.satrec,
           tr.epoch,
           (this.settings.start - MODEL_MARGIN_MS) as Instant,
-          (this.settings.end + MODEL_MARGIN_MS) as Instant,
+          until as Instant,
           MODEL_NODE_SPACING_MIN,
         );
         this.stats.sgp4Evaluations += 2 * Math.ceil((this.settings.end - this.settings.start) / 60_000 / MODEL_NODE_SPACING_MIN) + 3;
@@ -95,9 +137,13 @@ export class ScreeningSession {
     return [...this.flagged].map(([id, reason]) => ({ id, reason }));
   }
 
-  /** Exact grid of a primary (or null if it cannot be propagated over the window). */
+  /** Exact grid of a primary (up to its decay, if any), or null if it cannot be propagated. */
   grid(o: ScreeningObject, buffer?: Float64Array): StateGrid | null {
-    const g = buildStateGrid(o.trajectory, this.settings.start, this.settings.end, gridStepMs(o.periodMin), buffer);
+    const until = this.validUntil(o);
+    if (until === null) return null;
+    const end = Math.min(this.settings.end, until) as Instant;
+    if (end <= this.settings.start) return null;
+    const g = buildStateGrid(o.trajectory, this.settings.start, end, gridStepMs(o.periodMin), buffer);
     if ('failure' in g) {
       this.flag(o.id, `propagation failed: ${g.failure} at ${new Date(g.at).toISOString()}`);
       return null;
@@ -127,7 +173,10 @@ export class ScreeningSession {
       this.stats.radiusPruned++;
       return [];
     }
-    const { start, end } = this.settings;
+    const start = this.settings.start;
+    // An object that decays inside the window is screened up to that instant.
+    const end = Math.min(this.settings.end, this.validUntil(p) ?? 0, this.validUntil(s) ?? 0) as Instant;
+    if (end <= start) return [];
     const regions = candidateRegions(grid, ms, d, start, end, this.stats, mp);
     if (regions.length === 0) return [];
     const minPeriodMs = Math.min(p.periodMin, s.periodMin) * 60_000;

@@ -67,6 +67,8 @@ export async function runScreening(
   const gridBuffer = new SharedArrayBuffer(Math.max(8, offset * 8));
 
   const onAbort = () => Atomics.store(control, CTRL_CANCEL, 1);
+  // A signal aborted before the run starts fires no event: look at it now.
+  if (options.signal?.aborted) onAbort();
   options.signal?.addEventListener('abort', onAbort);
   const timer = options.onProgress
     ? setInterval(() => options.onProgress!(Atomics.load(control, CTRL_DONE), total), 200)
