@@ -7,7 +7,7 @@ import { buildStateGrid, gridStepMs, type StateGrid } from './primaryGrid.js';
 import { candidateRegions, type FilterStats, type Regions } from './pairFilter.js';
 import { findEncounters, PropagationError } from './refine.js';
 import { volumeBoundKm } from './geometry.js';
-import { MU_EARTH_WGS72 } from '../units.js';
+import { MU_EARTH_WGS72, R_EARTH_WGS72 } from '../units.js';
 import type { Encounter, FlaggedObject, ScreeningVolume } from './types.js';
 
 /** Spacing of the sampled mean elements of the filter model (min): 12 h keeps ε honest (tested). */
@@ -78,6 +78,10 @@ export class ScreeningSession {
     const { start, end } = this.settings;
     const tr = o.trajectory, buf = this.probe;
     const hi = end + MODEL_MARGIN_MS;
+    if (cannotFailInWindow(o, hi - start)) {
+      this.validity.set(o.id, hi);
+      return hi;
+    }
     let until: number | null;
     const atStart = tr.stateInto(start, buf, 0);
     if (atStart) {
@@ -214,6 +218,31 @@ export class ScreeningSession {
     return out;
   }
 }
+
+/**
+ * True for element sets that SGP4 propagates without error for this long: well-formed, perigee
+ * high above the atmosphere, moderate drag and eccentricity. Their propagation is not probed up
+ * front (saving an SGP4 initialisation for most of the catalogue); any failure still surfaces
+ * where the object is used. Decay needs the perigee near the ground: at ≥ 300 km with
+ * B* ≤ 0.01 the perigee falls far less than that within a few weeks (common practice: orbital
+ * lifetimes at 300 km are weeks to months).
+ */
+function cannotFailInWindow(o: ScreeningObject, spanMs: number): boolean {
+  const tr = o.trajectory;
+  if (!(tr instanceof Sgp4Trajectory) || spanMs > SAFE_SPAN_MS) return false;
+  const es = tr.elements;
+  if (!(es.meanMotion > 0 && es.eccentricity >= 0 && es.eccentricity < SAFE_MAX_ECCENTRICITY)) return false;
+  if (!(Math.abs(es.bstar) <= SAFE_MAX_BSTAR)) return false;
+  if (![es.inclinationDeg, es.raanDeg, es.argPerigeeDeg, es.meanAnomalyDeg, es.meanMotionDot].every(Number.isFinite)) return false;
+  const nRadS = (es.meanMotion * 2 * Math.PI) / 86_400;
+  const a = Math.cbrt(MU_EARTH_WGS72 / (nRadS * nRadS));
+  return a * (1 - es.eccentricity) - R_EARTH_WGS72 >= SAFE_PERIGEE_ALT_KM;
+}
+
+const SAFE_PERIGEE_ALT_KM = 300;
+const SAFE_MAX_BSTAR = 0.01;
+const SAFE_MAX_ECCENTRICITY = 0.9;
+const SAFE_SPAN_MS = 31 * 86_400_000;
 
 /**
  * Radius band of an SGP4 object from its element set, padded so that no

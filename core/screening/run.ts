@@ -3,7 +3,10 @@ import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { availableParallelism } from 'node:os';
 import type { ElementSet } from '../elements/elementSet.js';
 import { KeepclearError } from '../errors.js';
+import { Worker } from 'node:worker_threads';
 import { spawnTsWorker } from '../workers/spawn.js';
+import { bundledWorker } from '../workers/bundle.js';
+import { packSets } from './packedSets.js';
 import { CTRL_CANCEL, CTRL_DONE, ScreeningChunk, type ChunkResult, type GridLayout } from './chunk.js';
 import { gridPointCount, gridStepMs } from './primaryGrid.js';
 import type { WindowSettings } from './engine.js';
@@ -104,11 +107,13 @@ async function inWorkers(
   layout: { id: string; offset: number; count: number; stepMs: number }[],
   gridBuffer: SharedArrayBuffer,
 ): Promise<ChunkResult[]> {
-  const workers = Array.from({ length: n }, () => spawnTsWorker(new URL('./worker.ts', import.meta.url)));
+  const entry = new URL('./worker.ts', import.meta.url);
+  const script = await bundledWorker(entry);
+  const workers = Array.from({ length: n }, () => (script ? new Worker(script) : spawnTsWorker(entry)));
   const apis: Remote<ScreeningWorkerApi>[] = workers.map((w) => wrap<ScreeningWorkerApi>(nodeEndpoint(w)));
   try {
-    const sets = elementSets.map((e) => ({ ...e }));
-    await Promise.all(apis.map((a) => a.init(sets, win, control.buffer as SharedArrayBuffer)));
+    const packed = packSets(elementSets);
+    await Promise.all(apis.map((a) => a.init(packed, win, control.buffer as SharedArrayBuffer)));
     if (all) return await Promise.all(apis.map((a, i) => a.screenAllPairs(i, n)));
     // Primary grids: split among workers, written into the shared buffer.
     const parts = apis.map((_, i) => layout.filter((_, k) => k % n === i));

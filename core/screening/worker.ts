@@ -1,13 +1,13 @@
 import { expose } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { parentPort } from 'node:worker_threads';
-import type { ElementSet } from '../elements/elementSet.js';
+import { unpackSets, type PackedSets } from './packedSets.js';
 import { ScreeningChunk, type ChunkResult, type GridLayout } from './chunk.js';
 import type { WindowSettings } from './engine.js';
 
 /** The screening worker's API, called through comlink from run.ts. */
 export interface ScreeningWorkerApi {
-  init(elementSets: ElementSet[], settings: WindowSettings, control: SharedArrayBuffer): void;
+  init(packed: PackedSets, settings: WindowSettings, control: SharedArrayBuffer): void;
   buildGrids(layout: { id: string; offset: number; count: number; stepMs: number }[], grids: SharedArrayBuffer): GridLayout[];
   attachGrids(layout: GridLayout[], grids: SharedArrayBuffer): void;
   screenShared(primaryIds: string[], part: number, parts: number): ChunkResult;
@@ -21,8 +21,8 @@ const need = (): ScreeningChunk => {
 };
 
 const api: ScreeningWorkerApi = {
-  init(elementSets, settings, control) {
-    chunk = new ScreeningChunk(elementSets, settings, new Int32Array(control));
+  init(packed, settings, control) {
+    chunk = new ScreeningChunk(unpackSets(packed), settings, new Int32Array(control));
   },
   buildGrids: (layout, grids) => need().buildGrids(layout, new Float64Array(grids)),
   attachGrids: (layout, grids) => need().attachGrids(layout, new Float64Array(grids)),
