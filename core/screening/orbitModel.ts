@@ -8,8 +8,9 @@ const TWO_PI = 2 * Math.PI;
 const MS_PER_MIN = 60_000;
 /**
  * Safety on the measured model error: the periodic terms SGP4 adds to its mean elements vary
- * with twice the argument of latitude; ≥ 40 samples at incommensurate phases see at least
- * ~2/3 of their peak with overwhelming probability, so 1.5× covers the unseen peak.
+ * with the orbital phase; the samples below cover the phase with gaps ≤ ~0.05 of an orbit, so
+ * they see ≥ ~0.95 of the peak of a once- or twice-per-orbit term, and 1.5× covers the rest
+ * (checked against SGP4 at random instants in test/screening-model-bound.test.ts).
  */
 const EPS_SAFETY = 1.5;
 /** Floor added to the measured error (km): covers rounding and unsampled interpolation error. */
@@ -48,7 +49,15 @@ export interface OrbitModel {
 }
 
 
-const N_EL = 6; // a(km), e, i, Ω, ω, M — all unwrapped
+const N_EL = 6;
+/** Fractional part of the golden ratio: successive multiples spread evenly over [0, 1). */
+const GOLDEN = 0.6180339887498949;
+/** Eccentricity above which the error is also measured around perigee passages. */
+const PERIGEE_SAMPLING_MIN_E = 0.05;
+/** Perigee samples are spaced by the period over this (5 samples across ±2/50 of an orbit). */
+const PERIGEE_SAMPLE_FRACTION = 50;
+/** Keplerian period (min) of a semi-major axis in km, WGS-72 μ. */
+const periodMinutes = (aKm: number): number => (2 * Math.PI * Math.sqrt((aKm * aKm * aKm) / 398600.8)) / 60; // a(km), e, i, Ω, ω, M — all unwrapped
 
 export function buildSgp4Model(
   satrec: SatRec,
@@ -97,13 +106,45 @@ export function buildSgp4Model(
     model.positionInto((start + k * stepMin * MS_PER_MIN) as Instant, buf, 0);
     err = Math.max(err, Math.hypot(buf[0]! - pos[k * 3]!, buf[1]! - pos[k * 3 + 1]!, buf[2]! - pos[k * 3 + 2]!));
   }
+  // Between nodes: SGP4's periodic terms vary with the orbital phase, and the node spacing can
+  // be a near-multiple of the period (phase-locked samples all see the same error, measured: an
+  // error of 4.7 km at every node of an orbit whose error reaches 16.6 km). So each interval is
+  // also sampled at two orbital phases apart by half a period, stepping by the golden ratio from
+  // interval to interval (low-discrepancy coverage of the phase), around its middle where the
+  // interpolation error is largest.
   for (let k = 0; k < nIntervals; k++) {
-    const tm = t0Min + (k + 0.5) * stepMin;
-    const pv = sgp4(satrec, tm);
-    if (!pv) return reasonForSgp4Code(satrec.error);
-    model.positionInto((start + (k + 0.5) * stepMin * MS_PER_MIN) as Instant, buf, 0);
-    err = Math.max(err, Math.hypot(buf[0]! - pv.position.x, buf[1]! - pv.position.y, buf[2]! - pv.position.z));
-    vMax = Math.max(vMax, Math.hypot(pv.velocity.x, pv.velocity.y, pv.velocity.z));
+    const periodMin = Math.min(periodMinutes(el[k * N_EL]!), stepMin);
+    for (let j = 0; j < 2; j++) {
+      const phase = (k * GOLDEN + j / 2) % 1;
+      const tm = t0Min + (k + 0.5) * stepMin + (phase - 0.5) * periodMin;
+      const pv = sgp4(satrec, tm);
+      if (!pv) return reasonForSgp4Code(satrec.error);
+      model.positionInto((start + (tm - t0Min) * MS_PER_MIN) as Instant, buf, 0);
+      err = Math.max(err, Math.hypot(buf[0]! - pv.position.x, buf[1]! - pv.position.y, buf[2]! - pv.position.z));
+      vMax = Math.max(vMax, Math.hypot(pv.velocity.x, pv.velocity.y, pv.velocity.z));
+    }
+  }
+  // Eccentric orbits: SGP4's periodic terms peak sharply near perigee, where uniform samples
+  // rarely fall; measure also around the perigee passage next to every node.
+  const e0 = el[1]!;
+  if (e0 > PERIGEE_SAMPLING_MIN_E) {
+    for (let k = 0; k < nNodes; k++) {
+      const o = k * N_EL;
+      const nRadPerMin = (2 * Math.PI) / periodMinutes(el[o]!);
+      // Time to the next perigee (M ≡ 0 mod 2π) from node k, then a few samples around it.
+      const mMod = ((el[o + 5]! % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI);
+      const toPerigeeMin = (2 * Math.PI - mMod) / nRadPerMin;
+      const span = periodMinutes(el[o]!) / PERIGEE_SAMPLE_FRACTION;
+      for (const d of [-2, -1, 0, 1, 2]) {
+        const tm = t0Min + k * stepMin + toPerigeeMin + d * span;
+        const tMs = start + (tm - t0Min) * MS_PER_MIN;
+        if (tMs > end) continue;
+        const pv = sgp4(satrec, tm);
+        if (!pv) continue; // a failure here is judged where the object is used
+        model.positionInto(tMs as Instant, buf, 0);
+        err = Math.max(err, Math.hypot(buf[0]! - pv.position.x, buf[1]! - pv.position.y, buf[2]! - pv.position.z));
+      }
+    }
   }
   const eps = err * EPS_SAFETY + EPS_FLOOR_KM;
   let rMin = Infinity, rMax = 0, vBound = 0;

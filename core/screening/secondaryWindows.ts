@@ -114,15 +114,14 @@ export function secondaryPlaneWindows(
       const wHi = Math.max(me0[4]!, me1[4]!, mc[4]!) + CURVE_PAD_RAD;
       const Mc = mc[5]!, Mdot = mc[6]!;
       // u range of the block (ω + ν at both ends, ν from M(t) through Kepler's equation).
-      const M0 = Mc - Mdot * halfBlock, M1 = Mc + Mdot * halfBlock;
-      const nu0 = Number.isNaN(nuStart) ? trueFromMean(M0, e) : nuStart;
-      const nu1 = trueFromMean(M1, e);
+      // u range of the block from the model's own M and e at both ends (ν at the start is the
+      // previous block's end value: the same M and e), padded for the series' remainder.
+      const nu0 = Number.isNaN(nuStart) ? trueFromMean(me0[5]!, me0[1]!) : nuStart;
+      const nu1 = trueFromMean(me1[5]!, me1[1]!);
       nuStart = nu1;
-      const uLo = wLo + nu0, uHi = wHi + nu1;
-      // One extra k on each side: the block's u range is estimated (ν carried over from the
-      // previous block); a window that does not reach this block clamps to nothing below.
-      const kFirst = Math.ceil((uLo - beta - thHi - Math.PI / 2) / Math.PI) - 1;
-      const kLast = Math.floor((uHi + beta - thLo - Math.PI / 2) / Math.PI) + 1;
+      const uLo = wLo + nu0 - CURVE_PAD_RAD, uHi = wHi + nu1 + CURVE_PAD_RAD;
+      const kFirst = Math.ceil((uLo - beta - thHi - Math.PI / 2) / Math.PI);
+      const kLast = Math.floor((uHi + beta - thLo - Math.PI / 2) / Math.PI);
       for (let k = kFirst; k <= kLast; k++) {
         const u1 = thLo + Math.PI / 2 + k * Math.PI - beta, u2 = thHi + Math.PI / 2 + k * Math.PI + beta;
         const Ma = meanFromTrue(u1 - wHi, e), Mb = meanFromTrue(u2 - wLo, e);
