@@ -65,9 +65,20 @@ export function candidateRegions(
   if (!s.hasPlane) planeRegions = w ?? [start, end];
   else if (w) {
     planeRegions = [];
+    // Quick test per window before the closed form: g = n_S·r_P at the window's middle, and
+    // |ġ| ≤ v_P + |ṅ_S|·r_P over its half-width (same threshold as planeWindows).
+    const thrP = dKm + s.epsKm + GRID_EPS_KM + NORMAL_INTERP_KM;
+    const gdot = grid.vMaxKmS + NORMAL_RATE_BOUND * grid.maxRadiusKm();
     for (let k = 0; k < w.length; k += 2) {
       const a = Math.max(start, w[k]!), b = Math.min(end, w[k + 1]!);
-      if (b >= a) planeWindows(grid, s, dKm, a as Instant, b as Instant, stats, planeRegions);
+      if (b < a) continue;
+      const tm = 0.5 * (a + b);
+      grid.positionInto(tm, POS, 0);
+      s.tabledNormalInto(tm as Instant, NRM, 0);
+      const g = Math.abs(NRM[0]! * POS[0]! + NRM[1]! * POS[1]! + NRM[2]! * POS[2]!);
+      if (stats) stats.planeVisits++;
+      if (g - gdot * ((b - a) / 2000) > thrP) continue;
+      planeWindows(grid, s, dKm, a as Instant, b as Instant, stats, planeRegions);
     }
     planeRegions = intersect(planeRegions, w);
   } else planeRegions = planeWindows(grid, s, dKm, start, end, stats);

@@ -47,8 +47,13 @@ function pushWindow(out: Windows, a: number, b: number): void {
 
 const TWO_PI = 2 * Math.PI;
 
-/** ν → M (unwrapped consistently: ν in [(2k−1)π, (2k+1)π) gives M in the same revolution). */
+/**
+ * ν → M (unwrapped consistently: ν in [(2k−1)π, (2k+1)π) gives M in the same revolution).
+ * Near-circular orbits use the series M = ν − 2e·sin ν + (3/4)e²·sin 2ν, remainder ≤ e³ ≤ 1e-6
+ * rad for e < 0.01: ≪ 1 ms in time, inside TIME_PAD_MS.
+ */
 function meanFromTrue(nu: number, e: number): number {
+  if (e < 0.01) return nu - 2 * e * Math.sin(nu) + 0.75 * e * e * Math.sin(2 * nu);
   const k = Math.floor((nu + Math.PI) / TWO_PI);
   const v = nu - k * TWO_PI;
   const E = 2 * Math.atan(Math.sqrt((1 - e) / (1 + e)) * Math.tan(v / 2));
