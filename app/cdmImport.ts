@@ -3,7 +3,7 @@ import { parseCdmFile, hardBodyRadiusFromAreaPc, type Cdm, type CdmObject } from
 import { eme2000ToGcrf } from '../core/frames/eme2000.js';
 import { gcrfToTeme, itrfToTeme } from '../core/frames/teme.js';
 import { approachAngleDeg, relativeRtn } from '../core/screening/geometry.js';
-import type { Encounter, StateArray } from '../core/screening/types.js';
+import type { ConjunctionEvent, Encounter, StateArray } from '../core/screening/types.js';
 import type { Instant } from '../core/time/instant.js';
 import { vec3, type Km, type KmPerS, type StateVector } from '../core/units.js';
 import {
@@ -15,15 +15,15 @@ import {
   linkCdmToEvent,
   mergeEventExtra,
   storeCdmFile,
+  updateEventRisk,
   type ImportCounts,
   type KeepclearDb,
 } from '../db/index.js';
+import { matchingCdm, SAME_CONJUNCTION_MS } from './cdmMatch.js';
 import { RiskContext } from './risk.js';
 
 /** Runs made from received messages carry this fingerprint prefix (screening runs never do). */
 export const CDM_RUN_PREFIX = 'cdm:';
-/** A screened event is the same conjunction as a message when pair matches and TCAs agree this well. */
-const SAME_TCA_MS = 60_000;
 
 export interface CdmImportOutcome {
   readonly counts: ImportCounts;
@@ -162,8 +162,11 @@ export function importCdmFile(
     };
     const screened = latestScreeningEvent(db, enc);
     if (screened) {
-      extra.matchedEventId = screened;
-      mergeEventExtra(db, screened, { cdmEventId: eventId });
+      extra.matchedEventId = screened.id;
+      // The screened event's risk now takes the message's covariance (first in precedence).
+      const inputs = matchingCdm(db, screened);
+      if (inputs) updateEventRisk(db, screened.id, new RiskContext(db).assess(screened, inputs));
+      mergeEventExtra(db, screened.id, { cdmEventId: eventId, cdmId: stored.ids[0], reportedPc: cdm.relative.collisionProbability ?? null });
     }
     mergeEventExtra(db, eventId, extra);
     return { counts, rejections: [], repairs: notes, eventId };
@@ -171,13 +174,13 @@ export function importCdmFile(
 }
 
 /** The event of the newest screening run with the same pair (either order) and TCA. */
-function latestScreeningEvent(db: KeepclearDb, e: Encounter): string | null {
+function latestScreeningEvent(db: KeepclearDb, e: Encounter): ConjunctionEvent | null {
   const run = latestRun(db, 'done');
   if (!run || run.catalogFingerprint.startsWith(CDM_RUN_PREFIX)) return null;
   const hit = eventsOfRun(db, run.id).find(
     (x) =>
       ((x.primary === e.primary && x.secondary === e.secondary) || (x.primary === e.secondary && x.secondary === e.primary)) &&
-      Math.abs(x.tca - e.tca) <= SAME_TCA_MS,
+      Math.abs(x.tca - e.tca) <= SAME_CONJUNCTION_MS,
   );
-  return hit ? hit.id : null;
+  return hit ?? null;
 }

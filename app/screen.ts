@@ -2,7 +2,19 @@ import type { Instant } from '../core/time/instant.js';
 import { KeepclearError } from '../core/errors.js';
 import { runScreening } from '../core/screening/run.js';
 import type { ConjunctionEvent, ScreeningSettings } from '../core/screening/types.js';
-import { catalogFingerprint, createRun, finishRun, getRun, latestElementSets, type KeepclearDb, type RunRecord } from '../db/index.js';
+import {
+  catalogFingerprint,
+  createRun,
+  finishRun,
+  getRun,
+  inTransaction,
+  latestElementSets,
+  mergeEventExtra,
+  type KeepclearDb,
+  type RunRecord,
+  type StoredCdm,
+} from '../db/index.js';
+import { matchingCdm } from './cdmMatch.js';
 import { RiskContext } from './risk.js';
 
 export interface ScreenRequest {
@@ -46,13 +58,24 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
     finishRun(db, runId, { status: 'failed', wallMs: 0, flagged: [], events: [] });
     throw err;
   }
+  // Covariance precedence: a received message about the same conjunction comes first, then the
+  // object's element-set history, then the default table (DESIGN.md risk requirements).
   const risk = new RiskContext(db);
-  const events = outcome.encounters.map((e) => ({ ...e, risk: risk.assess(e) }));
-  const stored = finishRun(db, runId, {
-    status: outcome.cancelled ? 'cancelled' : 'done',
-    wallMs: outcome.wallMs,
-    flagged: outcome.flagged,
-    events,
+  const cache = new Map<string, StoredCdm[]>();
+  const matches = outcome.encounters.map((e) => matchingCdm(db, e, cache));
+  const events = outcome.encounters.map((e, i) => ({ ...e, risk: risk.assess(e, matches[i] ?? undefined) }));
+  const stored = inTransaction(db, () => {
+    const evs = finishRun(db, runId, {
+      status: outcome.cancelled ? 'cancelled' : 'done',
+      wallMs: outcome.wallMs,
+      flagged: outcome.flagged,
+      events,
+    });
+    evs.forEach((ev, i) => {
+      const m = matches[i];
+      if (m) mergeEventExtra(db, ev.id, { cdmId: m.cdm.id, cdmEventId: m.cdm.eventId, reportedPc: m.cdm.reportedPc });
+    });
+    return evs;
   });
   return { run: getRun(db, runId)!, events: stored };
 }
