@@ -3,6 +3,7 @@ import { defineConfig } from 'vitest/config';
 export default defineConfig({
   test: {
     include: ['test/**/*.test.ts'],
+    reporters: ['default', './test/support/plainSummary.ts'],
     // Screening tests spawn worker threads and SQLite files; keep files in separate forks.
     pool: 'forks',
     testTimeout: 120_000,
