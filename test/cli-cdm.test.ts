@@ -10,15 +10,13 @@
  * DESIGN.md asks for maximum Pc when a covariance is doubtful. test/fixtures/cdm/valid-6x6.kvn
  * has the same layout with PSD covariances, so its Pc is the 2-D reference integral.
  */
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { listImportFiles, openDatabase } from '../db/index.js';
+import { ROOT, runKeepclear, type Run } from './support/cli.js';
 
-const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..');
 const AUTH = 'test/authorities/ccsds-508';
 const KVN = `${AUTH}/cdm-obligatory.kvn`;
 const XML = `${AUTH}/cdm-example.xml`;
@@ -33,20 +31,7 @@ const MESSAGE_TCA = '2010-03-13T22:37:52.618Z';
 const MESSAGE_MISS_KM = 0.715;
 const MISS_ROUNDING_KM = 0.001;
 
-interface Run {
-  code: number;
-  stdout: string;
-  stderr: string;
-}
-function keepclear(args: string[]): Run {
-  const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'keepclear.js'), ...args], {
-    cwd: ROOT,
-    encoding: 'utf8',
-    env: { ...process.env, KEEPCLEAR_DB: join(dir, 'never-default.db') },
-    maxBuffer: 64 * 1024 * 1024,
-  });
-  return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
-}
+const keepclear = (args: string[]): Run => runKeepclear(args, dir);
 
 interface EventJson {
   id: string;

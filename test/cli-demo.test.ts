@@ -3,33 +3,18 @@
  * the invented fleet for the demo week, writes the run's report into DIR and prints a summary.
  * A small catalogue (--size) and in-thread screening (--workers 0) keep it quick.
  */
-import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DECISION_AID_NOTE } from '../core/risk/assess.js';
 import { buildDemoScenario, type DemoScenario } from '../core/synthetic/demo.js';
 import { eventsOfRun, listRuns, openDatabase } from '../db/index.js';
+import { runKeepclear, type Run } from './support/cli.js';
 
-const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..');
 const SIZE = 500;
 
-interface Run {
-  code: number;
-  stdout: string;
-  stderr: string;
-}
-function keepclear(args: string[]): Run {
-  const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'keepclear.js'), ...args], {
-    cwd: ROOT,
-    encoding: 'utf8',
-    env: { ...process.env, KEEPCLEAR_DB: join(dir, 'never-default.db') },
-    maxBuffer: 64 * 1024 * 1024,
-  });
-  return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
-}
+const keepclear = (args: string[]): Run => runKeepclear(args, dir);
 const htmlEscape = (s: string): string =>
   s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
 

@@ -3,33 +3,18 @@
  * back with the same contract fields the screen printed; `--run ID` picks an older run; an
  * unknown run is a failure (exit 1); the terminal table carries the decision-aid note.
  */
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { formatOmmJson } from '../core/formats/omm-write.js';
 import { formatTleFile } from '../core/formats/tle.js';
 import { DECISION_AID_NOTE } from '../core/risk/assess.js';
 import { buildDemoScenario } from '../core/synthetic/demo.js';
+import { runKeepclear, type Run } from './support/cli.js';
 
-const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..');
 
-interface Run {
-  code: number;
-  stdout: string;
-  stderr: string;
-}
-function keepclear(args: string[]): Run {
-  const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'keepclear.js'), ...args], {
-    cwd: ROOT,
-    encoding: 'utf8',
-    env: { ...process.env, KEEPCLEAR_DB: join(dir, 'never-default.db') },
-    maxBuffer: 64 * 1024 * 1024,
-  });
-  return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
-}
+const keepclear = (args: string[]): Run => runKeepclear(args, dir);
 
 /** The contract names of one event (DESIGN.md "JSON of screen and events"). */
 const CONTRACT_FIELDS = [

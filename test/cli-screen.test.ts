@@ -11,11 +11,10 @@
  *   the budget is the screening requirement plus that fit tolerance (in time: the fit's
  *   position error divided by the relative speed).
  */
-import { spawn, spawnSync } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import { formatOmmJson } from '../core/formats/omm-write.js';
@@ -25,8 +24,8 @@ import { buildDemoScenario, type DemoScenario, type PlantedEncounter } from '../
 import { FIT_POSITION_TOLERANCE_KM } from '../core/synthetic/fit.js';
 import { parseIso, type Instant } from '../core/time/instant.js';
 import { latestElementSets, listRuns, openDatabase } from '../db/index.js';
+import { ROOT, runKeepclear, type Run } from './support/cli.js';
 
-const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..');
 
 /** DESIGN.md "Screening requirements": TCA within 1 ms, miss within 1 m of a dense evaluation. */
 const SCREEN_TCA_TOL_MS = 1;
@@ -40,21 +39,7 @@ const ISO_MS_Z = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/;
 const START = '2026-12-07T00:00:00Z';
 const DAYS = 2;
 
-interface Run {
-  code: number;
-  stdout: string;
-  stderr: string;
-}
-
-function keepclear(args: string[]): Run {
-  const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'keepclear.js'), ...args], {
-    cwd: ROOT,
-    encoding: 'utf8',
-    env: { ...process.env, KEEPCLEAR_DB: join(dir, 'never-default.db') },
-    maxBuffer: 64 * 1024 * 1024,
-  });
-  return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
-}
+const keepclear = (args: string[]): Run => runKeepclear(args, dir);
 
 /** The same, without blocking: several cheap invocations can then share the two cores. */
 function keepclearAsync(args: string[]): Promise<Run> {
