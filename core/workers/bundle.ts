@@ -1,4 +1,5 @@
 import { createHash } from 'node:crypto';
+import { rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -34,6 +35,8 @@ async function bundle(entry: URL): Promise<URL | null> {
       outfile,
       logLevel: 'silent',
     });
+    // The bundle belongs to this process: remove it when the process ends.
+    process.once('exit', () => rmSync(outfile, { force: true }));
     return pathToFileURL(outfile);
   } catch {
     return null;
