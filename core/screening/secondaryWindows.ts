@@ -22,7 +22,20 @@ const TIME_PAD_MS = 1000;
 export type Windows = number[]; // flat [a0, b0, a1, b1, ...], sorted, disjoint
 
 // Scratch buffers (single-threaded per worker; no allocation per call).
-const ME0 = new Float64Array(7);
+const ME0 = new Float64Array(7), ME1 = new Float64Array(7), MC = new Float64Array(7), NP = new Float64Array(3);
+
+// θ and A of n_P against the secondary's node basis at t, from its elements in `me`
+// (written to gTheta / gA: no allocation in this hot loop).
+let gTheta = 0, gA = 0;
+function geom(p: OrbitModel, t: number, me: Float64Array): void {
+  p.tabledNormalInto(t as Instant, NP, 0);
+  const inc = me[2]!, node = me[3]!;
+  const cO = Math.cos(node), sO = Math.sin(node), ci = Math.cos(inc), si = Math.sin(inc);
+  const a = NP[0]! * cO + NP[1]! * sO;
+  const b = -NP[0]! * sO * ci + NP[1]! * cO * ci + NP[2]! * si;
+  gTheta = Math.atan2(b, a);
+  gA = Math.hypot(a, b);
+}
 
 function pushWindow(out: Windows, a: number, b: number): void {
   if (b < a) return;
@@ -66,65 +79,6 @@ function trueFromMean(M: number, e: number): number {
   return nu + k * TWO_PI;
 }
 
-/** Per-model tables at the block boundaries of one window, shared by every pair of the run. */
-interface SecondaryTable {
-  readonly key: string;
-  /** per boundary: a e i Ω ω M Ṁ (7), node basis p̂ q̂ (6), ν (1) */
-  readonly bnd: Float64Array;
-  /** per block centre: e ω M Ṁ */
-  readonly ctr: Float64Array;
-  readonly times: Float64Array;
-}
-const B_STRIDE = 14;
-const C_STRIDE = 4;
-const sTables = new WeakMap<OrbitModel, SecondaryTable>();
-const pTables = new WeakMap<OrbitModel, { key: string; normals: Float64Array }>();
-
-function blockTimes(start: number, end: number): Float64Array {
-  const n = Math.max(1, Math.ceil((end - start) / BLOCK_MS));
-  const t = new Float64Array(n + 1);
-  for (let k = 0; k <= n; k++) t[k] = Math.min(end, start + k * BLOCK_MS);
-  return t;
-}
-
-function secondaryTable(s: OrbitModel, start: number, end: number): SecondaryTable {
-  const key = `${start}:${end}`;
-  const cached = sTables.get(s);
-  if (cached && cached.key === key) return cached;
-  const times = blockTimes(start, end);
-  const nB = times.length - 1;
-  const bnd = new Float64Array((nB + 1) * B_STRIDE);
-  const ctr = new Float64Array(nB * C_STRIDE);
-  const me = ME0;
-  for (let k = 0; k <= nB; k++) {
-    s.meanElementsInto!(times[k]! as Instant, me);
-    const o = k * B_STRIDE;
-    for (let j = 0; j < 7; j++) bnd[o + j] = me[j]!;
-    const inc = me[2]!, node = me[3]!;
-    const cO = Math.cos(node), sO = Math.sin(node), ci = Math.cos(inc), si = Math.sin(inc);
-    bnd[o + 7] = cO; bnd[o + 8] = sO; bnd[o + 9] = 0; // p̂: toward the ascending node
-    bnd[o + 10] = -sO * ci; bnd[o + 11] = cO * ci; bnd[o + 12] = si; // q̂ = n̂ × p̂
-    bnd[o + 13] = trueFromMean(me[5]!, me[1]!);
-    if (k < nB) {
-      s.meanElementsInto!((0.5 * (times[k]! + times[k + 1]!)) as Instant, me);
-      const c = k * C_STRIDE;
-      ctr[c] = me[1]!; ctr[c + 1] = me[4]!; ctr[c + 2] = me[5]!; ctr[c + 3] = me[6]!;
-    }
-  }
-  const t = { key, bnd, ctr, times };
-  sTables.set(s, t);
-  return t;
-}
-
-function primaryNormals(p: OrbitModel, times: Float64Array, key: string): Float64Array {
-  const cached = pTables.get(p);
-  if (cached && cached.key === key) return cached.normals;
-  const normals = new Float64Array(times.length * 3);
-  for (let k = 0; k < times.length; k++) p.tabledNormalInto(times[k]! as Instant, normals, k * 3);
-  pTables.set(p, { key, normals });
-  return normals;
-}
-
 export function secondaryPlaneWindows(
   s: OrbitModel,
   p: OrbitModel,
@@ -134,58 +88,57 @@ export function secondaryPlaneWindows(
 ): Windows | null {
   if (!s.meanElementsInto || !p.hasPlane) return null;
   const out: Windows = [];
-  const tab = secondaryTable(s, start, end);
-  const { bnd, ctr, times } = tab;
-  const np = primaryNormals(p, times, tab.key);
-  const nB = times.length - 1;
-  // θ and A of n_P against the secondary's node basis at boundary k.
-  const thetaAt = (k: number): number => {
-    const o = k * B_STRIDE, q = k * 3;
-    return Math.atan2(
-      np[q]! * bnd[o + 10]! + np[q + 1]! * bnd[o + 11]! + np[q + 2]! * bnd[o + 12]!,
-      np[q]! * bnd[o + 7]! + np[q + 1]! * bnd[o + 8]!,
-    );
-  };
-  const ampAt = (k: number): number => {
-    const o = k * B_STRIDE, q = k * 3;
-    return Math.hypot(
-      np[q]! * bnd[o + 10]! + np[q + 1]! * bnd[o + 11]! + np[q + 2]! * bnd[o + 12]!,
-      np[q]! * bnd[o + 7]! + np[q + 1]! * bnd[o + 8]!,
-    );
-  };
-  let th0 = thetaAt(0), A0 = ampAt(0);
-  for (let k = 0; k < nB; k++) {
-    const t0 = times[k]!, t1 = times[k + 1]!;
-    const o0 = k * B_STRIDE, o1 = (k + 1) * B_STRIDE, c = k * C_STRIDE;
-    let th1 = thetaAt(k + 1);
-    const A1 = ampAt(k + 1);
+  const me0 = ME0, me1 = ME1, mc = MC;
+  let t0 = start as number;
+  s.meanElementsInto(t0 as Instant, me0);
+  geom(p, t0, me0);
+  let th0 = gTheta, A0 = gA;
+  let nuStart = Number.NaN; // ν at t0, carried over from the previous block's end
+  while (t0 < end) {
+    const t1 = Math.min(end, t0 + BLOCK_MS);
+    s.meanElementsInto(t1 as Instant, me1);
+    geom(p, t1, me1);
+    let th1 = gTheta;
+    const A1 = gA;
     th1 += TWO_PI * Math.round((th0 - th1) / TWO_PI);
-    const e = Math.min(Math.max(ctr[c]!, 0), 0.999);
-    const rhoMin = Math.min(bnd[o0]! * (1 - bnd[o0 + 1]!), bnd[o1]! * (1 - bnd[o1 + 1]!)) - s.epsKm;
+    const tc = 0.5 * (t0 + t1);
+    s.meanElementsInto(tc as Instant, mc);
+    const e = Math.min(Math.max(mc[1]!, 0), 0.999);
+    const rhoMin = Math.min(me0[0]! * (1 - me0[1]!), me1[0]! * (1 - me1[1]!)) - s.epsKm;
     const A = Math.min(A0, A1) - CURVE_PAD_RAD;
-    const cc = thrKm / (rhoMin * A);
-    if (!(cc < 1) || !(A > 0) || !(rhoMin > 0)) {
+    const c = thrKm / (rhoMin * A);
+    if (!(c < 1) || !(A > 0) || !(rhoMin > 0)) {
       pushWindow(out, t0 - TIME_PAD_MS, t1 + TIME_PAD_MS);
+      nuStart = Number.NaN;
     } else {
-      const beta = Math.asin(cc);
+      const beta = Math.asin(c);
       const thLo = Math.min(th0, th1) - CURVE_PAD_RAD, thHi = Math.max(th0, th1) + CURVE_PAD_RAD;
-      // ω drifts secularly (J2): its range over the block is that of its end and centre values, padded.
-      const wLo = Math.min(bnd[o0 + 4]!, bnd[o1 + 4]!, ctr[c + 1]!) - CURVE_PAD_RAD;
-      const wHi = Math.max(bnd[o0 + 4]!, bnd[o1 + 4]!, ctr[c + 1]!) + CURVE_PAD_RAD;
-      const tc = 0.5 * (t0 + t1), Mc = ctr[c + 2]!, Mdot = ctr[c + 3]!;
-      // u range of the block from the model's own M and e at both ends, padded for the series' remainder.
-      const uLo = wLo + bnd[o0 + 13]! - CURVE_PAD_RAD, uHi = wHi + bnd[o1 + 13]! + CURVE_PAD_RAD;
+      const halfBlock = (t1 - t0) / 2;
+      // ω drifts secularly (J2): its range over the block is that of its end values, padded.
+      const wLo = Math.min(me0[4]!, me1[4]!, mc[4]!) - CURVE_PAD_RAD;
+      const wHi = Math.max(me0[4]!, me1[4]!, mc[4]!) + CURVE_PAD_RAD;
+      const Mc = mc[5]!, Mdot = mc[6]!;
+      // u range of the block (ω + ν at both ends, ν from M(t) through Kepler's equation).
+      // u range of the block from the model's own M and e at both ends (ν at the start is the
+      // previous block's end value: the same M and e), padded for the series' remainder.
+      const nu0 = Number.isNaN(nuStart) ? trueFromMean(me0[5]!, me0[1]!) : nuStart;
+      const nu1 = trueFromMean(me1[5]!, me1[1]!);
+      nuStart = nu1;
+      const uLo = wLo + nu0 - CURVE_PAD_RAD, uHi = wHi + nu1 + CURVE_PAD_RAD;
       const kFirst = Math.ceil((uLo - beta - thHi - Math.PI / 2) / Math.PI);
       const kLast = Math.floor((uHi + beta - thLo - Math.PI / 2) / Math.PI);
-      for (let j = kFirst; j <= kLast; j++) {
-        const u1 = thLo + Math.PI / 2 + j * Math.PI - beta, u2 = thHi + Math.PI / 2 + j * Math.PI + beta;
+      for (let k = kFirst; k <= kLast; k++) {
+        const u1 = thLo + Math.PI / 2 + k * Math.PI - beta, u2 = thHi + Math.PI / 2 + k * Math.PI + beta;
         const Ma = meanFromTrue(u1 - wHi, e), Mb = meanFromTrue(u2 - wLo, e);
         const ta = tc + (Ma - Mc) / Mdot, tb = tc + (Mb - Mc) / Mdot;
         pushWindow(out, Math.max(t0, ta) - TIME_PAD_MS, Math.min(t1, tb) + TIME_PAD_MS);
       }
     }
+    t0 = t1;
+    for (let j = 0; j < 7; j++) me0[j] = me1[j]!;
     th0 = th1;
     A0 = A1;
+
   }
   return out;
 }
