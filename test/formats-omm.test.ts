@@ -12,6 +12,7 @@ import { parseOmmJson, formatOmmJson } from '../core/formats/omm-json.js';
 import { parseOmmKvn, formatOmmKvn } from '../core/formats/omm-kvn.js';
 import { parseOmmXml, formatOmmXml } from '../core/formats/omm-xml.js';
 import { parseTle } from '../core/formats/tle.js';
+import { generateCatalog } from '../core/synthetic/catalog.js';
 
 const FIX = new URL('./fixtures/formats/', import.meta.url);
 const bytes = (f: string): Uint8Array => readFileSync(new URL(f, FIX));
@@ -192,5 +193,17 @@ describe('format detection by content', () => {
     expect(r.sets).toEqual([]);
     expect(r.fatal?.code).toBe('FORMAT_UNKNOWN');
     expect(r.fatal?.toLine()).toMatch(/^notes\.txt:1: not a recognised element file/);
+  });
+});
+
+describe('large OMM XML files are read one OMM at a time', () => {
+  it('gives the same element sets and lines as reading the whole document', () => {
+    const sets = generateCatalog({ size: 300, seed: 11, epoch: Date.parse('2026-12-07T00:00:00Z') as never });
+    const text = formatOmmXml(sets);
+    const whole = parseOmmXml(text, 'cat.xml', Number.POSITIVE_INFINITY);
+    const chunked = parseOmmXml(text, 'cat.xml', 0);
+    expect(whole.sets).toHaveLength(300);
+    expect(chunked.sets).toEqual(whole.sets);
+    expect(chunked.rejections).toEqual(whole.rejections);
   });
 });
