@@ -28,8 +28,10 @@ export interface ScreeningObject {
   readonly trajectory: Trajectory;
   /** epoch of the element set / ephemeris used */
   readonly epoch: Instant;
-  /** orbital period (min), used to size grids and steps */
+  /** orbital period (min), used to size refinement steps */
   readonly periodMin: number;
+  /** step of the object's exact grid when it is a primary (ms); default from periodMin */
+  readonly gridStepMs?: number;
   /** speed bound (km/s) for sources without a mean-element model */
   readonly vMaxKmS?: number;
 }
@@ -40,6 +42,7 @@ export function objectFromElements(es: ElementSet): ScreeningObject {
     trajectory: new Sgp4Trajectory(es),
     epoch: es.epoch,
     periodMin: 1440 / es.meanMotion,
+    gridStepMs: gridStepMs(es.meanMotion, es.eccentricity),
   };
 }
 
@@ -147,7 +150,7 @@ export class ScreeningSession {
     if (until === null) return null;
     const end = Math.min(this.settings.end, until) as Instant;
     if (end <= this.settings.start) return null;
-    const g = buildStateGrid(o.trajectory, this.settings.start, end, gridStepMs(o.periodMin), buffer);
+    const g = buildStateGrid(o.trajectory, this.settings.start, end, o.gridStepMs ?? gridStepMs(1440 / o.periodMin), buffer);
     if ('failure' in g) {
       this.flag(o.id, `propagation failed: ${g.failure} at ${new Date(g.at).toISOString()}`);
       return null;

@@ -56,11 +56,21 @@ export class StateGrid {
   }
 }
 
-/** Grid step for an object of the given period: ≤ period/400, between 5 and 30 s. */
-export function gridStepMs(periodMin: number): number {
-  const s = Math.min(30, Math.max(5, (periodMin * 60) / 400));
+/**
+ * Grid step (ms) from the fastest angular rate of the orbit, its rate at perigee n_p: cubic
+ * Hermite interpolation errs by ≤ h⁴/384·|r⁽⁴⁾| ≈ (h·n_p)⁴/384·r, so h·n_p ≤ GRID_TURN_RAD keeps
+ * it below (0.06)⁴/384 ≈ 3.4e-8 of the radius (0.24 m in LEO, 1.4 m at GEO radius), inside
+ * the filters' GRID_EPS_KM = 10 m (test/screening-grid.test.ts measures it). Between 5 and 60 s.
+ */
+export function gridStepMs(meanMotionRevPerDay: number, eccentricity = 0): number {
+  const n = (meanMotionRevPerDay * 2 * Math.PI) / 86_400; // rad/s
+  const e = Math.min(Math.max(eccentricity, 0), 0.99);
+  const perigeeRate = (n * Math.sqrt(1 + e)) / Math.pow(1 - e, 1.5); // h/r_p² = n·√(1+e)/(1−e)^1.5
+  const s = Math.min(60, Math.max(5, GRID_TURN_RAD / perigeeRate));
   return s * 1000;
 }
+
+const GRID_TURN_RAD = 0.06;
 
 /** Fills a grid from a trajectory; returns the failure if any grid point cannot be computed. */
 export function buildStateGrid(

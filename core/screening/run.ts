@@ -61,7 +61,8 @@ export async function runScreening(
   const bySet = new Map(elementSets.map((e) => [e.objectId, e]));
   let offset = 0;
   const layout = primaries.map((id) => {
-    const stepMs = gridStepMs(1440 / bySet.get(id)!.meanMotion);
+    const es = bySet.get(id)!;
+    const stepMs = gridStepMs(es.meanMotion, es.eccentricity);
     const count = gridPointCount(settings.start, settings.end, stepMs);
     const l = { id, offset, count, stepMs };
     offset += count * 6;
