@@ -10,7 +10,8 @@ export function writeJson(target: string, value: unknown): void {
   else writeFileSync(target, text);
 }
 
-const fmtPc = (pc: number | null | undefined): string => (pc === null || pc === undefined ? '—' : pc.toExponential(2));
+const fmtPc = (pc: number | null | undefined): string =>
+  pc === null || pc === undefined ? '—' : pc < 1e-300 ? '< 1e-300' : pc.toExponential(2);
 
 /** A plain-text table of events for the terminal. */
 export function eventTable(events: readonly ConjunctionEvent[]): string {
