@@ -1,3 +1,4 @@
+import { eventRowOf } from '../core/bridge/convert.js';
 import { toIso } from '../core/time/instant.js';
 import type { ConjunctionEvent, FlaggedObject, ScreeningSettings } from '../core/screening/types.js';
 import type { RunRecord } from '../db/index.js';
@@ -6,20 +7,9 @@ import type { RunRecord } from '../db/index.js';
 export function eventToJson(e: ConjunctionEvent): Record<string, unknown> {
   const r = e.risk;
   return {
-    id: e.id,
-    runId: e.runId,
-    primary: e.primary,
-    secondary: e.secondary,
-    tca: toIso(e.tca),
-    missKm: e.missKm,
-    relativeSpeedKmS: e.relativeSpeedKmS,
-    rtnKm: [...e.rtnKm],
-    approachAngleDeg: e.approachAngleDeg,
-    pc: r ? r.pc : null,
-    pcMethod: r ? r.pcMethod : null,
-    covarianceSource: r ? r.covarianceSource : null,
+    // The fields the desktop bridge shows in its event table, converted the same way.
+    ...eventRowOf(e),
     hardBodyRadiusM: r ? r.hardBodyRadiusM : null,
-    tier: r ? r.tier : null,
     warnings: r ? [...r.warnings] : [],
     entry: e.entry === null ? null : toIso(e.entry),
     exit: e.exit === null ? null : toIso(e.exit),

@@ -15,7 +15,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { listImportFiles, openDatabase } from '../db/index.js';
-import { ROOT, runKeepclear, type Run } from './support/cli.js';
+import { ROOT, runKeepclear, type EventJson, type Run } from './support/cli.js';
 
 const AUTH = 'test/authorities/ccsds-508';
 const KVN = `${AUTH}/cdm-obligatory.kvn`;
@@ -33,21 +33,6 @@ const MISS_ROUNDING_KM = 0.001;
 
 const keepclear = (args: string[]): Run => runKeepclear(args, dir);
 
-interface EventJson {
-  id: string;
-  primary: string;
-  secondary: string;
-  tca: string;
-  missKm: number;
-  relativeSpeedKmS: number;
-  rtnKm: number[];
-  approachAngleDeg: number;
-  pc: number | null;
-  pcMethod: string;
-  covarianceSource: string;
-  warnings: string[];
-  extra: { reportedPc?: number | null; [k: string]: unknown };
-}
 function events(db: string): EventJson[] {
   const r = keepclear(['events', '--db', db, '--json', '-']);
   expect(r.code, r.stderr).toBe(0);
@@ -116,7 +101,7 @@ describe.each([
 
   it("keeps the message's reported Pc apart from Keepclear's own", () => {
     const [e] = stored;
-    expect(e!.extra.reportedPc ?? null).toBe(reportedPc);
+    expect(e!.extra!.reportedPc ?? null).toBe(reportedPc);
     expect(typeof e!.pc).toBe('number');
     expect(e!.covarianceSource).toMatch(/^cdm/);
   });
@@ -157,7 +142,7 @@ describe('a CDM with PSD covariances (test/fixtures/cdm/valid-6x6.kvn)', () => {
     expect(typeof e!.pc).toBe('number');
     expect(e!.pc!).toBeGreaterThan(0);
     expect(e!.pc!).toBeLessThan(1);
-    expect(e!.extra.reportedPc).toBe(4.835e-5);
+    expect(e!.extra!.reportedPc).toBe(4.835e-5);
     // RELATIVE_SPEED = 14762 [m/s], to the m/s
     expect(Math.abs(e!.relativeSpeedKmS - 14.762)).toBeLessThanOrEqual(0.001);
   });

@@ -24,7 +24,7 @@ import { buildDemoScenario, type DemoScenario, type PlantedEncounter } from '../
 import { FIT_POSITION_TOLERANCE_KM } from '../core/synthetic/fit.js';
 import { parseIso, type Instant } from '../core/time/instant.js';
 import { latestElementSets, listRuns, openDatabase } from '../db/index.js';
-import { ROOT, runKeepclear, type Run } from './support/cli.js';
+import { ROOT, runKeepclear, type EventJson, type Run } from './support/cli.js';
 
 
 /** DESIGN.md "Screening requirements": TCA within 1 ms, miss within 1 m of a dense evaluation. */
@@ -70,21 +70,6 @@ async function pooled<T>(jobs: (() => Promise<T>)[], limit: number): Promise<T[]
   return results;
 }
 
-interface EventJson {
-  id: string;
-  primary: string;
-  secondary: string;
-  tca: string;
-  missKm: number;
-  relativeSpeedKmS: number;
-  rtnKm: number[];
-  approachAngleDeg: number;
-  pc: number | null;
-  pcMethod: string;
-  covarianceSource: string;
-  entry?: string | null;
-  exit?: string | null;
-}
 interface ScreenJson {
   run: {
     id: string;

@@ -23,3 +23,23 @@ export function runKeepclear(args: string[], sandboxDir: string): Run {
   });
   return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
 }
+
+/** One event of `screen --json` / `events --json`, as DESIGN.md names its fields. */
+export interface EventJson {
+  id: string;
+  primary: string;
+  secondary: string;
+  tca: string;
+  missKm: number;
+  relativeSpeedKmS: number;
+  rtnKm: number[];
+  approachAngleDeg: number;
+  pc: number | null;
+  pcMethod: string;
+  covarianceSource: string;
+  warnings: string[];
+  entry?: string | null;
+  exit?: string | null;
+  /** only in `events`: values of a received message, kept apart from Keepclear's */
+  extra?: { reportedPc?: number | null; [k: string]: unknown };
+}
