@@ -4,8 +4,8 @@ import { buildPlanarTrack, type PlanarTrack } from './planarTrack.js';
 
 /**
  * Exact states of one object on a uniform time grid, interpolated by cubic Hermite (position
- * and velocity at both ends). With steps ≤ 1/400 of the period the interpolation error is
- * below a metre (h⁴/384·|r⁽⁴⁾| ≈ 1e-3 km at GTO perigee for 30 s), far inside the filter pads.
+ * and velocity at both ends). With the step of gridStepMs the interpolation error stays below
+ * ~1.4 m (see there; measured in test/screening-grid.test.ts), far inside the filter pads.
  * The array can live in a SharedArrayBuffer so every worker reads the same ephemeris.
  */
 export class StateGrid {
