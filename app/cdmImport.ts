@@ -3,7 +3,7 @@ import { parseCdmFile, hardBodyRadiusFromAreaPc, type Cdm, type CdmObject } from
 import { eme2000ToGcrf } from '../core/frames/eme2000.js';
 import { gcrfToTeme, itrfToTeme } from '../core/frames/teme.js';
 import { approachAngleDeg, relativeRtn } from '../core/screening/geometry.js';
-import type { ConjunctionEvent, Encounter, StateArray } from '../core/screening/types.js';
+import type { ConjunctionEvent, Encounter, StateArray } from '../core/events/index.js';
 import type { Instant } from '../core/time/instant.js';
 import { vec3, type Km, type KmPerS, type StateVector } from '../core/units.js';
 import {

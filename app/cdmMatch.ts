@@ -1,7 +1,7 @@
 import type { Cdm, CdmObject } from '../core/formats/cdm.js';
 import { hardBodyRadiusFromAreaPc } from '../core/formats/cdm.js';
 import type { Matrix } from '../core/math/linalg.js';
-import type { Encounter } from '../core/screening/types.js';
+import type { Encounter } from '../core/events/index.js';
 import { listCdms, type KeepclearDb, type StoredCdm } from '../db/index.js';
 
 /** A screened event and a received message describe the same conjunction within this (ms). */

@@ -1,6 +1,7 @@
 import { eventRowOf } from '../core/bridge/convert.js';
 import { toIso } from '../core/time/instant.js';
-import type { ConjunctionEvent, FlaggedObject, ScreeningSettings } from '../core/screening/types.js';
+import type { FlaggedObject, ScreeningSettings } from '../core/screening/types.js';
+import type { ConjunctionEvent } from '../core/events/index.js';
 import type { RunRecord } from '../db/index.js';
 
 /** JSON of one event: the contract names of DESIGN.md ("JSON of screen and events") plus extras. */

@@ -1,7 +1,7 @@
 import { DECISION_AID_NOTE } from '../core/risk/assess.js';
 import { TIERS, type TierId } from '../core/risk/tiers.js';
 import { toIso } from '../core/time/instant.js';
-import type { ConjunctionEvent } from '../core/screening/types.js';
+import type { ConjunctionEvent } from '../core/events/index.js';
 import type { RunRecord } from '../db/index.js';
 
 const esc = (s: string): string =>

@@ -2,7 +2,7 @@ import type { ElementSet } from '../core/elements/elementSet.js';
 import type { Matrix } from '../core/math/linalg.js';
 import { assessEncounter, type CovarianceInput } from '../core/risk/assess.js';
 import type { TierThresholds } from '../core/risk/tiers.js';
-import type { Encounter, RiskAssessment } from '../core/screening/types.js';
+import type { Encounter, RiskAssessment } from '../core/events/index.js';
 import { elementSetHistory, getObject, getSetting, type KeepclearDb } from '../db/index.js';
 
 /** Settings key of user-set tier thresholds (JSON: { mitigatePc, attentionPc, ... }). */

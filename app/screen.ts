@@ -1,7 +1,8 @@
 import type { Instant } from '../core/time/instant.js';
 import { KeepclearError } from '../core/errors.js';
 import { runScreening } from '../core/screening/run.js';
-import type { ConjunctionEvent, ScreeningSettings } from '../core/screening/types.js';
+import type { ScreeningSettings } from '../core/screening/types.js';
+import type { ConjunctionEvent } from '../core/events/index.js';
 import {
   catalogFingerprint,
   createRun,

@@ -1,7 +1,7 @@
 import { writeFileSync } from 'node:fs';
 import { DECISION_AID_NOTE } from '../core/risk/assess.js';
 import { toIso } from '../core/time/instant.js';
-import type { ConjunctionEvent } from '../core/screening/types.js';
+import type { ConjunctionEvent } from '../core/events/index.js';
 
 /** Writes JSON to a file, or to stdout for "-" (and nothing else goes to stdout then). */
 export function writeJson(target: string, value: unknown): void {

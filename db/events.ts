@@ -1,10 +1,5 @@
 import { KeepclearError } from '../core/errors.js';
-import type {
-  ConjunctionEvent,
-  Encounter,
-  RiskAssessment,
-  StateArray,
-} from '../core/screening/types.js';
+import type { ConjunctionEvent, Encounter, RiskAssessment, RiskDetail, StateArray } from '../core/events/index.js';
 import { instantFromMs } from '../core/time/instant.js';
 import type { KeepclearDb } from './connection.js';
 
@@ -38,6 +33,8 @@ interface EventRow {
   hard_body_radius_m: number | null;
   tier: string | null;
   warnings_json: string | null;
+  /** RiskDetail as JSON (schema v2); NULL for events stored before, or without a plane */
+  risk_detail_json: string | null;
   extra_json: string;
 }
 
@@ -51,6 +48,7 @@ function riskFromRow(r: EventRow): RiskAssessment | null {
     hardBodyRadiusM: r.hard_body_radius_m ?? Number.NaN,
     tier: r.tier ?? '',
     warnings: JSON.parse(r.warnings_json ?? '[]') as string[],
+    ...(r.risk_detail_json ? { detail: JSON.parse(r.risk_detail_json) as RiskDetail } : {}),
   };
 }
 
@@ -75,8 +73,16 @@ const fromRow = (r: EventRow): ConjunctionEvent => ({
 
 const riskParams = (risk: RiskAssessment | null | undefined): unknown[] =>
   risk
-    ? [risk.pc, risk.pcMethod, risk.covarianceSource, risk.hardBodyRadiusM, risk.tier, JSON.stringify(risk.warnings)]
-    : [null, null, null, null, null, null];
+    ? [
+        risk.pc,
+        risk.pcMethod,
+        risk.covarianceSource,
+        risk.hardBodyRadiusM,
+        risk.tier,
+        JSON.stringify(risk.warnings),
+        risk.detail ? JSON.stringify(risk.detail) : null,
+      ]
+    : [null, null, null, null, null, null, null];
 
 /** Events of a run are numbered in TCA order; ties broken by the pair so the order is stable. */
 function byTca(a: NewEvent, b: NewEvent): number {
@@ -99,8 +105,8 @@ export function insertEvents(db: KeepclearDb, runId: string, events: readonly Ne
        p_x_km, p_y_km, p_z_km, p_vx_km_s, p_vy_km_s, p_vz_km_s,
        s_x_km, s_y_km, s_z_km, s_vx_km_s, s_vy_km_s, s_vz_km_s,
        primary_epoch_ms, secondary_epoch_ms,
-       pc, pc_method, covariance_source, hard_body_radius_m, tier, warnings_json)
-     VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+       pc, pc_method, covariance_source, hard_body_radius_m, tier, warnings_json, risk_detail_json)
+     VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
   );
   const sorted = [...events].sort(byTca);
   const stored: ConjunctionEvent[] = [];
@@ -152,7 +158,7 @@ export function updateEventRisk(db: KeepclearDb, id: string, risk: RiskAssessmen
   const changes = db
     .stmt(
       `UPDATE events SET pc = ?, pc_method = ?, covariance_source = ?, hard_body_radius_m = ?,
-         tier = ?, warnings_json = ? WHERE id = ?`,
+         tier = ?, warnings_json = ?, risk_detail_json = ? WHERE id = ?`,
     )
     .run(...riskParams(risk), id).changes;
   if (changes === 0) throw new KeepclearError('NOT_FOUND', `no event "${id}"; list events with keepclear events`);

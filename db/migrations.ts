@@ -12,6 +12,11 @@ export interface Migration {
 /** Ordered, append-only: never edit a released step; add a new one. */
 export const MIGRATIONS: readonly Migration[] = [
   { version: 1, name: 'initial schema', up: (db) => db.sqlite.exec(SCHEMA_V1) },
+  {
+    version: 2,
+    name: 'risk detail of events (covariances, encounter plane) as JSON',
+    up: (db) => db.sqlite.exec('ALTER TABLE events ADD COLUMN risk_detail_json TEXT'),
+  },
 ];
 
 export const SCHEMA_VERSION = MIGRATIONS[MIGRATIONS.length - 1]?.version ?? 0;

@@ -1,10 +1,6 @@
 import { KeepclearError } from '../core/errors.js';
-import type {
-  ConjunctionEvent,
-  FlaggedObject,
-  ScreeningSettings,
-  ScreeningVolume,
-} from '../core/screening/types.js';
+import type { FlaggedObject, ScreeningSettings, ScreeningVolume } from '../core/screening/types.js';
+import type { ConjunctionEvent } from '../core/events/index.js';
 import { instantFromMs, type Instant } from '../core/time/instant.js';
 import { inTransaction, type KeepclearDb } from './connection.js';
 import { insertEvents, type NewEvent } from './events.js';

@@ -3,12 +3,12 @@
  * IPC. Nothing else lives here: the bridge handlers and the import come in through
  * `startDesktop()` (the lead wires them to db/ and core/), so this file holds no data of its own.
  */
-import { app, BrowserWindow, dialog, ipcMain, Menu, type IpcMainInvokeEvent } from 'electron';
+import { app, BrowserWindow, dialog, ipcMain, Menu } from 'electron';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { BridgeHandlers } from '../core/bridge/contract.js';
 import { DECISION_AID_NOTE } from '../core/risk/assess.js';
-import { registerBridgeIpc } from './ipc.js';
+import { registerBridgeIpc, type InvokeEventLike } from './ipc.js';
 import { buildAppMenu } from './menu.js';
 
 export interface DesktopOptions {
@@ -83,7 +83,7 @@ function showAbout(win: BrowserWindow | undefined): void {
 /** Starts the desktop app once Electron is ready. Call from the entry module. */
 export function startDesktop(options: DesktopOptions): void {
   let win: BrowserWindow | undefined;
-  const isTrustedSender = (event: IpcMainInvokeEvent): boolean =>
+  const isTrustedSender = (event: InvokeEventLike): boolean =>
     win !== undefined && event.sender === win.webContents && event.senderFrame === win.webContents.mainFrame;
 
   const open = (): void => {

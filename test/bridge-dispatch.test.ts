@@ -1,11 +1,11 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import type { IpcMainInvokeEvent } from 'electron';
 import { BridgeCallError, bridgeErrorCode, unwrapReply } from '../core/bridge/client.js';
 import { CHANNELS, ipcChannelName, type BridgeHandlers, type BridgeReply } from '../core/bridge/contract.js';
 import { eventDetailOf, eventRowOf, runSummaryOf, tierOf } from '../core/bridge/convert.js';
 import { dispatch } from '../core/bridge/dispatch.js';
 import { KeepclearError } from '../core/errors.js';
-import type { Encounter, RiskAssessment, ScreeningSettings } from '../core/screening/types.js';
+import type { ScreeningSettings } from '../core/screening/types.js';
+import type { Encounter, RiskAssessment } from '../core/events/index.js';
 import { instantFromMs, parseIso } from '../core/time/instant.js';
 import {
   countObjects,
@@ -18,7 +18,7 @@ import {
   openDatabase,
   type KeepclearDb,
 } from '../db/index.js';
-import { registerBridgeIpc } from '../electron/ipc.js';
+import { registerBridgeIpc, type InvokeEventLike } from '../electron/ipc.js';
 
 const T0 = parseIso('2026-12-03T00:00:00Z')!;
 const SETTINGS: ScreeningSettings = {
@@ -183,7 +183,7 @@ describe('dispatch', () => {
 });
 
 describe('electron/ipc.ts', () => {
-  type Listener = (event: IpcMainInvokeEvent, ...args: unknown[]) => Promise<unknown>;
+  type Listener = (event: InvokeEventLike, ...args: unknown[]) => Promise<unknown>;
   function fakeIpc() {
     const listeners = new Map<string, Listener>();
     return {
@@ -195,8 +195,8 @@ describe('electron/ipc.ts', () => {
       removeHandler: (name: string) => void listeners.delete(name),
     };
   }
-  const event = (trusted: boolean) => ({ trusted }) as unknown as IpcMainInvokeEvent;
-  const isTrusted = (e: IpcMainInvokeEvent): boolean => (e as unknown as { trusted: boolean }).trusted;
+  const event = (trusted: boolean) => ({ trusted }) as unknown as InvokeEventLike;
+  const isTrusted = (e: InvokeEventLike): boolean => (e as unknown as { trusted: boolean }).trusted;
 
   it('registers one handler per channel, validates, and removes them again', async () => {
     const ipc = fakeIpc();

@@ -11,7 +11,7 @@ import type { BridgeApi, BridgeHandlers, Channel, EventRow, Req, Res, RunSummary
 import { dispatch } from '../core/bridge/dispatch.js';
 import { KeepclearError } from '../core/errors.js';
 import { DECISION_AID_NOTE } from '../core/risk/assess.js';
-import type { Encounter } from '../core/screening/types.js';
+import type { Encounter } from '../core/events/index.js';
 import { instantFromMs, parseIso } from '../core/time/instant.js';
 import { createRun, eventsOfRun, finishRun, getEvent, getRun, listRuns, openDatabase, type KeepclearDb } from '../db/index.js';
 import { catalogLine, eventCells, formatPc, formatUtc, runLabel, TABLE_COLUMNS, tierDisplay } from '../renderer/format.js';

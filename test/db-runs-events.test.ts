@@ -1,6 +1,7 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { KeepclearError } from '../core/errors.js';
-import type { Encounter, RiskAssessment, ScreeningSettings, StateArray } from '../core/screening/types.js';
+import type { ScreeningSettings } from '../core/screening/types.js';
+import type { Encounter, RiskAssessment, StateArray } from '../core/events/index.js';
 import { instantFromMs, parseIso } from '../core/time/instant.js';
 import {
   createRun,
@@ -146,6 +147,21 @@ describe('events', () => {
     const noPc: RiskAssessment = { ...RISK, pc: null, pcMethod: 'none', covarianceSource: 'missing', warnings: [] };
     updateEventRisk(db, e!.id, noPc);
     expect(getEvent(db, e!.id)?.risk).toEqual(noPc);
+    updateEventRisk(db, e!.id, RISK);
+    expect(getEvent(db, e!.id)?.risk).toEqual(RISK);
+    // The numbers behind the Pc (schema v2) round-trip with the risk, and go when it is replaced.
+    const withDetail: RiskAssessment = {
+      ...RISK,
+      detail: {
+        primaryCovRtnM2: [[1, 0.5, 0], [0.5, 4, 0], [0, 0, 9]],
+        secondaryCovRtnM2: null,
+        planeMissM: [812.5, 0],
+        planeCovM2: [[16, -2], [-2, 25]],
+        sigmaAlongVelocityM: 7.25,
+      },
+    };
+    updateEventRisk(db, e!.id, withDetail);
+    expect(getEvent(db, e!.id)?.risk).toEqual(withDetail);
     updateEventRisk(db, e!.id, RISK);
     expect(getEvent(db, e!.id)?.risk).toEqual(RISK);
     expect(() => updateEventRisk(db, 'R9-9', RISK)).toThrow(/no event "R9-9"/);

@@ -4,7 +4,7 @@ import { cdmRtnFromLowerTriangle } from '../core/risk/covarianceCdm.js';
 import { DEFAULT_HBR_PER_OBJECT_M, hbrFromAreaM, combinedHbr } from '../core/risk/hardBody.js';
 import { pcMax } from '../core/risk/pcMax.js';
 import { TIERS, tierFor } from '../core/risk/tiers.js';
-import type { Encounter } from '../core/screening/types.js';
+import type { Encounter } from '../core/events/index.js';
 import { parseIso } from '../core/time/instant.js';
 
 const tca = parseIso('2026-03-02T12:00:00Z')!;
@@ -80,5 +80,37 @@ describe('assessEncounter: covariance precedence and Pc method', () => {
     expect(a.pcMethod).toBe('max-pc (doubtful covariance)');
     expect(a.warnings.join(' ')).toMatch(/indefinite/);
     expect(a.warnings.join(' ')).toMatch(/hard-body radius default/);
+  });
+});
+
+describe('assessEncounter keeps the numbers behind the Pc (risk.detail)', () => {
+  // Closed form (rotation invariance): an isotropic covariance σ²I stays σ²I in any axes, so two
+  // isotropic objects give a plane covariance (σp² + σs²)·I₂ and σ along the relative velocity
+  // √(σp² + σs²), whatever the geometry. Tolerance: rounding of the 3-D rotations, 1e-9 relative.
+  const REL = 1e-9;
+  it('isotropic covariances: plane covariance and σ along the relative velocity in closed form', () => {
+    const a = assessEncounter(encounter, {
+      primary: { cdmRtnM2: diagCdm(30, 30, 30) },
+      secondary: { cdmRtnM2: diagCdm(40, 40, 40) },
+      hbrPrimaryM: 5, hbrSecondaryM: 5,
+    });
+    const d = a.detail!;
+    expect(Math.abs(d.planeCovM2![0][0] / 2500 - 1)).toBeLessThan(REL);
+    expect(Math.abs(d.planeCovM2![1][1] / 2500 - 1)).toBeLessThan(REL);
+    expect(Math.abs(d.planeCovM2![0][1]) / 2500).toBeLessThan(REL);
+    expect(Math.abs(d.sigmaAlongVelocityM! / 50 - 1)).toBeLessThan(REL);
+    // The states sit at TCA (relative position ⟂ relative velocity): the whole 200 m miss lies
+    // along the plane's x axis.
+    expect(Math.abs(d.planeMissM[0] - 200)).toBeLessThan(1e-9 * 200);
+    expect(d.planeMissM[1]).toBe(0);
+    expect(d.primaryCovRtnM2![1]![1]).toBeCloseTo(900, 9);
+    expect(d.secondaryCovRtnM2![2]![2]).toBeCloseTo(1600, 9);
+  });
+  it('without a covariance for one object: no plane covariance, the other one kept', () => {
+    const a = assessEncounter(encounter, { primary: { cdmRtnM2: diagCdm(30, 30, 30) }, secondary: {} });
+    expect(a.detail!.planeCovM2).toBeNull();
+    expect(a.detail!.sigmaAlongVelocityM).toBeNull();
+    expect(a.detail!.secondaryCovRtnM2).toBeNull();
+    expect(a.detail!.primaryCovRtnM2![0]![0]).toBeCloseTo(900, 9);
   });
 });

@@ -5,7 +5,7 @@ import { inertialToRtnCov, rtnBasis, rtnToInertialCov } from '../core/risk/frame
 import { pc2dReference } from '../core/risk/pc2dReference.js';
 import { pcMonteCarlo3d } from '../core/risk/pcMonteCarlo.js';
 import { checkShortEncounter } from '../core/risk/shortEncounter.js';
-import type { StateArray } from '../core/screening/types.js';
+import type { StateArray } from '../core/events/index.js';
 
 /** Unit vectors built from doubles: rounding only. */
 const ROUND_TOL = 1e-14;

@@ -12,7 +12,8 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { StraightLineTrajectory } from '../core/propagation/straightLine.js';
 import { ScreeningSession, type ScreeningObject } from '../core/screening/engine.js';
-import type { Encounter, ScreeningVolume } from '../core/screening/types.js';
+import type { ScreeningVolume } from '../core/screening/types.js';
+import type { Encounter } from '../core/events/index.js';
 import type { Instant } from '../core/time/instant.js';
 
 type Vec = [number, number, number];

@@ -1,5 +1,5 @@
 import { KeepclearError } from '../../core/errors.js';
-import type { ConjunctionEvent } from '../../core/screening/types.js';
+import type { ConjunctionEvent } from '../../core/events/index.js';
 import { defaultDbPath, eventsOfRun, getEventExtra, getRun, listRuns, openDatabase, type RunRecord } from '../../db/index.js';
 import { CDM_RUN_PREFIX } from '../../app/cdmImport.js';
 import { eventToJson, runToJson } from '../../app/eventJson.js';

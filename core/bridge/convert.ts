@@ -3,7 +3,8 @@
  * Pure; the handlers the desktop app and `keepclear serve` register use these.
  */
 import { TIERS, type TierId } from '../risk/tiers.js';
-import type { ConjunctionEvent, FlaggedObject, ScreeningSettings } from '../screening/types.js';
+import type { FlaggedObject, ScreeningSettings } from '../screening/types.js';
+import type { ConjunctionEvent } from '../events/index.js';
 import { toIso, type Instant } from '../time/instant.js';
 import type { EventDetail, EventRow, RunStatus, RunSummary, ScreeningVolumeSummary } from './contract.js';
 

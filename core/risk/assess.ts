@@ -1,14 +1,14 @@
 import type { ElementSet } from '../elements/elementSet.js';
 import { KeepclearError } from '../errors.js';
 import type { Matrix } from '../math/linalg.js';
-import type { Encounter, RiskAssessment, StateArray } from '../screening/types.js';
+import type { Encounter, Matrix2, Matrix3, RiskAssessment, RiskDetail, StateArray } from '../events/index.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
 import { covarianceFromCdm } from './covarianceCdm.js';
 import { defaultCovariance, regimeOf } from './covarianceDefault.js';
 import { covarianceFromHistory } from './covarianceHistory.js';
 import { checkCovariance } from './covariancePsd.js';
 import type { Regime } from './defaultCovarianceTable.js';
-import { encounterPlane } from './encounterPlane.js';
+import { encounterPlane, type EncounterPlane } from './encounterPlane.js';
 import { rtnBasis, rtnToInertialCov } from './frames.js';
 import { combinedHbr } from './hardBody.js';
 import { pc2dFast } from './pc2dFast.js';
@@ -51,6 +51,8 @@ export interface AssessInputs {
 
 interface Resolved {
   readonly inertialM2: Matrix | null;
+  /** the same covariance's 3×3 position block in the object's RTN frame (m²), when usable */
+  readonly rtnM2: Matrix | null;
   readonly source: string;
   readonly doubtful: boolean;
   readonly notes: readonly string[];
@@ -60,15 +62,17 @@ function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch:
   const basis = rtnBasis([state[0], state[1], state[2]], [state[3], state[4], state[5]]);
   const graded = (rtn: Matrix, source: string): Resolved => {
     const c = checkCovariance(rtn, `${label} ${source}`);
+    const usable = c.status !== 'doubtful';
     return {
-      inertialM2: c.status === 'doubtful' ? null : rtnToInertialCov(c.matrix, basis),
+      inertialM2: usable ? rtnToInertialCov(c.matrix, basis) : null,
+      rtnM2: usable ? c.matrix.slice(0, 3).map((row) => row.slice(0, 3)) : null,
       source,
       doubtful: c.status === 'doubtful',
       notes: c.note ? [c.note] : [],
     };
   };
   if (input.cdmDoubtfulNote) {
-    return { inertialM2: null, source: 'cdm (not PSD)', doubtful: true, notes: [input.cdmDoubtfulNote] };
+    return { inertialM2: null, rtnM2: null, source: 'cdm (not PSD)', doubtful: true, notes: [input.cdmDoubtfulNote] };
   }
   if (input.cdmRtnM2) return graded(covarianceFromCdm(input.cdmRtnM2, state).rtnM2, 'cdm');
   if (input.history) {
@@ -80,7 +84,7 @@ function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch:
     const d = defaultCovariance(regime, (tca - (input.elements?.epoch ?? epoch)) / MS_PER_DAY);
     return graded(d.rtnM2, d.source);
   }
-  return { inertialM2: null, source: 'none', doubtful: false, notes: [`${label}: no covariance available`] };
+  return { inertialM2: null, rtnM2: null, source: 'none', doubtful: false, notes: [`${label}: no covariance available`] };
 }
 
 /**
@@ -98,6 +102,7 @@ export function assessEncounter(encounter: Encounter, inputs: AssessInputs): Ris
   const warnings: string[] = [...p.notes, ...s.notes];
   if (hbr.note) warnings.push(hbr.note);
   const covarianceSource = `${p.source} / ${s.source}`;
+  let detail: RiskDetail | undefined;
   const done = (pc: number | null, pcMethod: string): RiskAssessment => ({
     pc,
     pcMethod,
@@ -105,6 +110,7 @@ export function assessEncounter(encounter: Encounter, inputs: AssessInputs): Ris
     hardBodyRadiusM: hbr.radiusM,
     tier: tierFor(pc, encounter.missKm, thresholds),
     warnings,
+    ...(detail ? { detail } : {}),
   });
   const zero: Matrix = [[0, 0, 0], [0, 0, 0], [0, 0, 0]];
   let plane;
@@ -115,6 +121,7 @@ export function assessEncounter(encounter: Encounter, inputs: AssessInputs): Ris
     warnings.push(`no Pc: ${e.message}`);
     return done(null, 'none');
   }
+  detail = riskDetail(plane, p.inertialM2 !== null && s.inertialM2 !== null, p.rtnM2, s.rtnM2);
   const maxPc = (why: string): RiskAssessment => {
     warnings.push(`maximum Pc used (${why}): an upper bound over all covariance sizes, not an estimate`);
     return done(pcMax(plane.missM, null, hbr.radiusM).pc, `max-pc (${why})`);
@@ -132,4 +139,26 @@ export function assessEncounter(encounter: Encounter, inputs: AssessInputs): Ris
     warnings.push(e.message);
     return maxPc('doubtful covariance');
   }
+}
+
+const matrix3 = (m: Matrix | null): Matrix3 | null =>
+  m ? (m.slice(0, 3).map((row) => [row[0]!, row[1]!, row[2]!] as const) as unknown as Matrix3) : null;
+
+/**
+ * What the Pc was computed from, kept with the event. The plane covariance and the σ along the
+ * relative velocity are given only when both covariances were usable (then they are those of
+ * the combined covariance the Pc used).
+ */
+function riskDetail(plane: EncounterPlane, both: boolean, primaryRtn: Matrix | null, secondaryRtn: Matrix | null): RiskDetail {
+  const z = plane.axes.z, c = plane.combinedCovM2;
+  let along = 0;
+  for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) along += z[i]! * c[i]![j]! * z[j]!;
+  const cov2: Matrix2 = [[plane.covM2[0][0], plane.covM2[0][1]], [plane.covM2[1][0], plane.covM2[1][1]]];
+  return {
+    primaryCovRtnM2: matrix3(primaryRtn),
+    secondaryCovRtnM2: matrix3(secondaryRtn),
+    planeMissM: [plane.missM[0], plane.missM[1]],
+    planeCovM2: both ? cov2 : null,
+    sigmaAlongVelocityM: both ? Math.sqrt(Math.max(along, 0)) : null,
+  };
 }

@@ -1,6 +1,6 @@
 import { KeepclearError } from '../errors.js';
 import { zeros, type Matrix } from '../math/linalg.js';
-import type { StateArray } from '../screening/types.js';
+import type { StateArray } from '../events/index.js';
 import { rtnBasis, rtnToInertialCov } from './frames.js';
 
 /**

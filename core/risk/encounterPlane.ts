@@ -1,6 +1,6 @@
 import { KeepclearError } from '../errors.js';
 import { add, multiply, transpose, type Matrix } from '../math/linalg.js';
-import type { StateArray } from '../screening/types.js';
+import type { StateArray } from '../events/index.js';
 import type { Cov2, Vec2 } from './encounterGeometry2d.js';
 import type { Vec3n } from './frames.js';
 

@@ -1,6 +1,6 @@
 import { MU_EARTH_WGS84 } from '../units.js';
 import type { Matrix } from '../math/linalg.js';
-import type { StateArray } from '../screening/types.js';
+import type { StateArray } from '../events/index.js';
 import type { Vec3n } from './frames.js';
 
 /**

@@ -1,7 +1,8 @@
 import type { ElementSet } from '../elements/elementSet.js';
 import { objectFromElements, ScreeningSession, type ScreeningObject, type WindowSettings } from './engine.js';
 import { StateGrid } from './primaryGrid.js';
-import type { Encounter, FlaggedObject } from './types.js';
+import type { FlaggedObject } from './types.js';
+import type { Encounter } from '../events/index.js';
 
 /** Shared control block: [0] cancel flag, [1] units of work done (all workers together). */
 export const CTRL_CANCEL = 0;

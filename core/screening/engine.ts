@@ -8,7 +8,8 @@ import { candidateRegions, type FilterStats, type Regions } from './pairFilter.j
 import { findEncounters, PropagationError } from './refine.js';
 import { volumeBoundKm } from './geometry.js';
 import { MU_EARTH_WGS72, R_EARTH_WGS72 } from '../units.js';
-import type { Encounter, FlaggedObject, ScreeningVolume } from './types.js';
+import type { FlaggedObject, ScreeningVolume } from './types.js';
+import type { Encounter } from '../events/index.js';
 
 /** Spacing of the sampled mean elements of the filter model (min): 12 h keeps ε honest (tested). */
 const MODEL_NODE_SPACING_MIN = 720;

@@ -2,7 +2,8 @@ import type { Instant } from '../time/instant.js';
 import type { FailureReason, Trajectory } from '../propagation/trajectory.js';
 import { brentRoot, goldenMin } from '../math/brent.js';
 import { approachAngleDeg, relativeRtn, volumeBoundKm, volumeMetric } from './geometry.js';
-import type { Encounter, ScreeningVolume, StateArray } from './types.js';
+import type { ScreeningVolume } from './types.js';
+import type { Encounter, StateArray } from '../events/index.js';
 
 /** TCA accuracy: the range-rate root is solved to 1 µs (requirement: 1 ms). */
 const TCA_TOL_S = 1e-6;

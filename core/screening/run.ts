@@ -10,7 +10,8 @@ import { packSets } from './packedSets.js';
 import { CTRL_CANCEL, CTRL_DONE, ScreeningChunk, type ChunkResult, type GridLayout } from './chunk.js';
 import { gridPointCount, gridStepMs } from './primaryGrid.js';
 import type { WindowSettings } from './engine.js';
-import type { Encounter, FlaggedObject, ScreeningSettings } from './types.js';
+import type { FlaggedObject, ScreeningSettings } from './types.js';
+import type { Encounter } from '../events/index.js';
 import type { ScreeningWorkerApi } from './worker.js';
 
 export interface RunOptions {

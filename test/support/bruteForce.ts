@@ -28,7 +28,7 @@
  */
 import type { Trajectory } from '../../core/propagation/trajectory.js';
 import type { Instant } from '../../core/time/instant.js';
-import type { Encounter } from '../../core/screening/types.js';
+import type { Encounter } from '../../core/events/index.js';
 
 /** Pad on the sampled speeds (km/s): speed changes by ≤ |a|·1 s ≈ 0.01 km/s between samples. */
 const SPEED_PAD_KMS = 0.05;
