@@ -20,7 +20,7 @@ export type {
 export type { OemCovarianceFrame, OemInterpolationMethod, OemStateFrame, OemTimeSystem } from './keywords.js';
 export { loadOem } from './load.js';
 export { formatOemKvn } from './write.js';
-export { sampleOem, type OemSampleOptions, type SampledSpan } from './sample.js';
+export { SAMPLED_INTERPOLATION, sampleOem, type OemSampleOptions, type SampledSpan } from './sample.js';
 export { classifyObjectId, type OemObjectRef } from './objectId.js';
 export { fullCovariance, lowerTriangleOf, positionCovarianceRtnM2 } from './covariance.js';
 

@@ -9,11 +9,24 @@
  * velocity change (adjacent segments share the burn epoch; the later one is used from it on).
  */
 import { KeepclearError } from '../../errors.js';
-import { DEFAULT_INTERPOLATION, nodesFor } from '../../propagation/interpolation.js';
+import { nodesFor } from '../../propagation/interpolation.js';
 import type { Trajectory } from '../../propagation/trajectory.js';
 import { instantFromMs, toIso, type Instant } from '../../time/instant.js';
 import type { OemInterpolationMethod, OemStateFrame } from './keywords.js';
 import type { Oem, OemSegment, TemeNodeStates } from './model.js';
+
+/**
+ * What a sampled OEM asks its readers to use unless the caller says otherwise: LAGRANGE 9,
+ * positions only. SGP4's velocity is not exactly the derivative of its position (measured up to
+ * 2.4 cm/s in LEO, test/oem-frames.test.ts), and HERMITE would carry that into the positions
+ * between nodes (≈ 0.33·h·|δv|, half a metre at 60 s); 10 nodes 60 s apart interpolate a LEO
+ * orbit to micrometres (test/oem-interpolation.test.ts). A caller whose velocities are the
+ * derivative of its positions (a numerical propagator) may ask for HERMITE and sparser nodes.
+ */
+export const SAMPLED_INTERPOLATION = { method: 'LAGRANGE', degree: 9 } as const satisfies {
+  method: OemInterpolationMethod;
+  degree: number;
+};
 
 export interface SampledSpan {
   readonly trajectory: Trajectory;
@@ -31,6 +44,7 @@ export interface OemSampleOptions {
   readonly messageId?: string;
   /** Frame the writer will use; default EME2000. */
   readonly frame?: OemStateFrame;
+  /** Default SAMPLED_INTERPOLATION. */
   readonly interpolation?: { readonly method: OemInterpolationMethod; readonly degree: number };
   readonly comments?: readonly string[];
   /** Name used in notes and errors when this OEM is written or screened. */
@@ -52,7 +66,7 @@ function grid(span: SampledSpan): number[] {
 
 export function sampleOem(spans: readonly SampledSpan[], opts: OemSampleOptions): Oem {
   const frame = opts.frame ?? 'EME2000';
-  const interpolation = { ...(opts.interpolation ?? DEFAULT_INTERPOLATION), stated: true };
+  const interpolation = { ...(opts.interpolation ?? SAMPLED_INTERPOLATION), stated: true };
   const buf = new Float64Array(6);
   const segments = spans.map((span): OemSegment => {
     const times = grid(span);
