@@ -28,8 +28,8 @@ interface Case {
 const fx = JSON.parse(readFileSync(new URL('./authorities/frames/fixture.json', import.meta.url), 'utf8')) as {
   cases: Case[]; frameBias: number[][];
 };
-const dist = (a: readonly number[], b: readonly number[]): number => Math.hypot(a[0]! - b[0]!, a[1]! - b[1]!, a[2]! - b[2]!);
-const norm = (a: readonly number[]): number => Math.hypot(a[0]!, a[1]!, a[2]!);
+const dist = (a: ArrayLike<number>, b: ArrayLike<number>): number => Math.hypot(a[0]! - b[0]!, a[1]! - b[1]!, a[2]! - b[2]!);
+const norm = (a: ArrayLike<number>): number => Math.hypot(a[0]!, a[1]!, a[2]!);
 
 const FRAMES: readonly OemStateFrame[] = ['EME2000', 'GCRF', 'ITRF', 'TEME'];
 
