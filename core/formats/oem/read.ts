@@ -10,7 +10,7 @@ import type { ErrorCode, Rejection } from '../../errors.js';
 import { parseCcsdsTime, parseCdmInteger, parseCdmNumber } from '../cdm-values.js';
 import {
   COVARIANCE_TERMS, HEADER_MANDATORY, HEADER_OPTIONAL, METADATA_KEYWORDS, METADATA_MANDATORY, METADATA_TIMES,
-  OEM_VERSIONS, sameUnit, STATE_UNITS,
+  OEM_VERSIONS, sameUnit, STATE_ELEMENTS, STATE_UNITS,
 } from './keywords.js';
 import type {
   OemHeader, OemMessage, OemMessageCovariance, OemMessageMetadata, OemMessageSegment, OemMessageState, ScaleTime,
@@ -56,15 +56,16 @@ class Checker {
   }
 
   /** Numbers of a data or covariance line with their units checked; a reason when one is bad. */
-  numbers(values: readonly RawValue[], units: readonly string[], what: string): number[] | { code: ErrorCode; reason: string } {
+  numbers(values: readonly RawValue[], units: readonly string[], names: readonly string[], what: string): number[] | { code: ErrorCode; reason: string } {
     const out: number[] = [];
     for (let i = 0; i < values.length; i++) {
       const v = values[i]!;
+      const name = `${what} ${names[i]} (value ${i + 1})`;
       const x = parseCdmNumber(v.text);
       if (x === null || !Number.isFinite(x))
-        return { code: 'OEM_FIELD', reason: `${what} value ${i + 1} "${v.text}" is not a number` };
+        return { code: 'OEM_FIELD', reason: `${name} "${v.text}" is not a number` };
       if (v.unit !== undefined && !sameUnit(v.unit, units[i]!))
-        return { code: 'OEM_UNITS', reason: `${what} value ${i + 1} has unit [${v.unit}], expected [${units[i]}] (CCSDS 502.0-B-2); convert it` };
+        return { code: 'OEM_UNITS', reason: `${name} has unit [${v.unit}], expected [${units[i]}] (CCSDS 502.0-B-2); convert it` };
       out.push(x);
     }
     return out;
@@ -183,7 +184,7 @@ function readStates(seg: RawSegment, meta: OemMessageMetadata, c: Checker): OemM
         '(x y z in km, x_dot y_dot z_dot in km/s) or 9 (with accelerations in km/s**2)');
       continue;
     }
-    const n = c.numbers(s.values, STATE_UNITS, 'data line');
+    const n = c.numbers(s.values, STATE_UNITS, STATE_ELEMENTS, 'data line');
     if (!Array.isArray(n)) {
       skip(n.code, n.reason);
       continue;
@@ -220,7 +221,7 @@ function readCovariance(cov: RawCovariance, meta: OemMessageMetadata, c: Checker
   if (epoch === null) return null;
   if (epoch < meta.startTime || epoch > meta.stopTime)
     return skip('OEM_FIELD', epochEntry.line, `covariance EPOCH ${epochEntry.value.trim()} is outside the segment's START_TIME … STOP_TIME`);
-  const n = c.numbers(cov.terms, COVARIANCE_TERMS.map((t) => t.unit), 'covariance');
+  const n = c.numbers(cov.terms, COVARIANCE_TERMS.map((t) => t.unit), COVARIANCE_TERMS.map((t) => t.element), 'covariance');
   if (!Array.isArray(n)) return skip(n.code, cov.line, n.reason);
   const frame = map.get('COV_REF_FRAME')?.value.trim();
   return { epoch, lowerTriangle: n, comments: cov.comments, line: cov.line, ...(frame ? { covRefFrame: frame } : {}) };
