@@ -60,6 +60,7 @@ export function lexOemKvn(text: string, file: string): KvnLexResult {
   let seg: RawSegment | null = null;
   let cov: OpenCovariance | null = null;
   let covBlockLine = 0;
+  let pendingCov: string[] = [];
   let sawHeaderLine = false;
 
   /** Ends the open covariance matrix: kept when it has exactly rows of 1, 2, …, 6 terms. */
@@ -90,6 +91,8 @@ export function lexOemKvn(text: string, file: string): KvnLexResult {
     }
     if (place === 'covariance') {
       closeMatrix();
+      seg?.dataComments.push(...pendingCov);
+      pendingCov = [];
       reject('OEM_STRUCTURE', covBlockLine,
         `COVARIANCE_START has no COVARIANCE_STOP before line ${line}; add COVARIANCE_STOP after the last matrix`);
     }
@@ -104,7 +107,8 @@ export function lexOemKvn(text: string, file: string): KvnLexResult {
       const c = comment[1] ?? '';
       if (place === 'header') raw.headerComments.push(c);
       else if (place === 'meta') seg!.metadataComments.push(c);
-      else if (place === 'covariance') (cov ? cov.comments : seg!.dataComments).push(c);
+      // A covariance COMMENT belongs to the matrix it precedes (or heads, before its rows).
+      else if (place === 'covariance') (cov && cov.rows.length === 0 ? cov.comments : pendingCov).push(c);
       else seg!.dataComments.push(c);
       return;
     }
@@ -132,6 +136,8 @@ export function lexOemKvn(text: string, file: string): KvnLexResult {
       case 'COVARIANCE_STOP':
         if (place === 'covariance') {
           closeMatrix();
+          seg!.dataComments.push(...pendingCov);
+          pendingCov = [];
           place = 'closed';
         } else reject('OEM_STRUCTURE', line, 'COVARIANCE_STOP without a COVARIANCE_START before it; remove it');
         return;
@@ -144,7 +150,8 @@ export function lexOemKvn(text: string, file: string): KvnLexResult {
       else if (place === 'covariance') {
         if (entry.keyword === 'EPOCH') {
           closeMatrix();
-          cov = { line, entries: [entry], rows: [], comments: [] };
+          cov = { line, entries: [entry], rows: [], comments: pendingCov };
+          pendingCov = [];
         } else if (entry.keyword === 'COV_REF_FRAME' && cov && cov.rows.length === 0) cov.entries.push(entry);
         else
           reject('OEM_STRUCTURE', line,
