@@ -10,7 +10,7 @@ import {
   classifyObjectId, formatOemKvn, fullCovariance, parseOemFile, sampleOem, type Oem, type OemCovariance,
 } from '../core/formats/oem/index.js';
 import type { OemStateFrame } from '../core/formats/oem/keywords.js';
-import { instantFromMs, parseIso, type Instant } from '../core/time/instant.js';
+import { instantFromMs, parseIso } from '../core/time/instant.js';
 import { TwoBody, TwoBodyTrajectory } from './support/twoBody.js';
 
 const T0 = Date.UTC(2026, 5, 1, 6, 0, 0);
@@ -187,4 +187,59 @@ describe('OBJECT_ID: catalogue number or international designator', () => {
   });
 });
 
-export type { Instant };
+
+describe('KVN and XML of the same message load to the same model', () => {
+  // Hand-written, with the optional parts: units ([km] in KVN, units="km" in XML), accelerations
+  // on one line, a covariance in TNW, an <ndm> wrapper around the XML.
+  const s = [0, 1, 2].map((k) => body.state(T0 + k * 60_000));
+  const f = (x: number): string => x.toFixed(7);
+  const kvn = [
+    'CCSDS_OEM_VERS = 2.0', 'CREATION_DATE = 2026-06-01T05:00:00.000', 'ORIGINATOR = TARNWELL ORBITAL', '',
+    'META_START', 'OBJECT_NAME = TARNWELL-3', 'OBJECT_ID = 2026-100A', 'CENTER_NAME = EARTH', 'REF_FRAME = EME2000',
+    'TIME_SYSTEM = UTC', 'START_TIME = 2026-06-01T06:00:00.000', 'STOP_TIME = 2026-06-01T06:02:00.000',
+    'INTERPOLATION = HERMITE', 'INTERPOLATION_DEGREE = 3', 'META_STOP',
+    `2026-06-01T06:00:00.000 ${f(s[0]!.r[0])} [km] ${f(s[0]!.r[1])} [km] ${f(s[0]!.r[2])} [km] ${s[0]!.v.map(f).join(' [km/s] ')} [km/s]`,
+    `2026-06-01T06:01:00.000 ${[...s[1]!.r, ...s[1]!.v].map(f).join(' ')} 0.001 0.002 0.003`,
+    `2026-06-01T06:02:00.000 ${[...s[2]!.r, ...s[2]!.v].map(f).join(' ')}`,
+    'COVARIANCE_START', 'EPOCH = 2026-06-01T06:01:00.000', 'COV_REF_FRAME = TNW',
+    '1e-4', '0 2e-4', '0 0 3e-4', '0 0 0 1e-8', '0 0 0 0 2e-8', '0 0 0 0 0 3e-8', 'COVARIANCE_STOP', '',
+  ].join('\n');
+  const el = (tag: string, v: string | number, units?: string): string => `<${tag}${units ? ` units="${units}"` : ''}>${v}</${tag}>`;
+  const cov = ['CX_X', 'CY_X', 'CY_Y', 'CZ_X', 'CZ_Y', 'CZ_Z', 'CX_DOT_X', 'CX_DOT_Y', 'CX_DOT_Z', 'CX_DOT_X_DOT',
+    'CY_DOT_X', 'CY_DOT_Y', 'CY_DOT_Z', 'CY_DOT_X_DOT', 'CY_DOT_Y_DOT', 'CZ_DOT_X', 'CZ_DOT_Y', 'CZ_DOT_Z', 'CZ_DOT_X_DOT',
+    'CZ_DOT_Y_DOT', 'CZ_DOT_Z_DOT'];
+  const covValues = [1e-4, 0, 2e-4, 0, 0, 3e-4, 0, 0, 0, 1e-8, 0, 0, 0, 0, 2e-8, 0, 0, 0, 0, 0, 3e-8];
+  const xml = [
+    '<?xml version="1.0" encoding="UTF-8"?>', '<ndm>', '<oem id="CCSDS_OEM_VERS" version="2.0">',
+    '<header>', el('CREATION_DATE', '2026-06-01T05:00:00.000'), el('ORIGINATOR', 'TARNWELL ORBITAL'), '</header>',
+    '<body><segment><metadata>',
+    el('OBJECT_NAME', 'TARNWELL-3'), el('OBJECT_ID', '2026-100A'), el('CENTER_NAME', 'EARTH'), el('REF_FRAME', 'EME2000'),
+    el('TIME_SYSTEM', 'UTC'), el('START_TIME', '2026-06-01T06:00:00.000'), el('STOP_TIME', '2026-06-01T06:02:00.000'),
+    el('INTERPOLATION', 'HERMITE'), el('INTERPOLATION_DEGREE', 3), '</metadata><data>',
+    ...s.map((st, k) => ['<stateVector>', el('EPOCH', `2026-06-01T06:0${k}:00.000`),
+      ...['X', 'Y', 'Z'].map((n, i) => el(n, f(st.r[i]!), 'km')), ...['X_DOT', 'Y_DOT', 'Z_DOT'].map((n, i) => el(n, f(st.v[i]!), 'km/s')),
+      ...(k === 1 ? [el('X_DDOT', 0.001, 'km/s**2'), el('Y_DDOT', 0.002), el('Z_DDOT', 0.003)] : []), '</stateVector>'].join('\n')),
+    '<covarianceMatrix>', el('EPOCH', '2026-06-01T06:01:00.000'), el('COV_REF_FRAME', 'TNW'),
+    ...cov.map((n, i) => el(n, covValues[i]!, i === 0 ? 'km**2' : undefined)), '</covarianceMatrix>',
+    '</data></segment></body>', '</oem>', '</ndm>', '',
+  ].join('\n');
+
+  it('same states, covariance and metadata; no problem reported', () => {
+    const a = parseOemFile(kvn, 'x.oem'), b = parseOemFile(xml, 'x.xml');
+    expect(a.rejections).toEqual([]);
+    expect(b.rejections).toEqual([]);
+    const [sa, sb] = [a.oem!.segments[0]!, b.oem!.segments[0]!];
+    expect([...sb.epochs]).toEqual([...sa.epochs]);
+    expect([...sb.teme]).toEqual([...sa.teme]);
+    expect(sb.covariances.map((c) => [c.epoch, c.frame, c.matrix])).toEqual(sa.covariances.map((c) => [c.epoch, c.frame, c.matrix]));
+    expect(sb.metadata).toEqual(sa.metadata);
+    expect(sa.covariances[0]!.matrix[2]![2]).toBe(3e-4);
+  });
+  it('a unit that is not the standard\'s is refused in either syntax', () => {
+    const k = parseOemFile(kvn.replace('[km/s] ', '[m/s] '), 'x.oem');
+    expect(k.rejections.map((r) => [r.line, r.code])).toEqual([[16, 'OEM_UNITS']]);
+    const x = parseOemFile(xml.replace('<Y_DDOT>', '<Y_DDOT units="m/s**2">'), 'x.xml');
+    expect(x.rejections).toHaveLength(1);
+    expect(x.rejections[0]!.reason).toMatch(/^data line Y_DDOT \(value 8\) has unit \[m\/s\*\*2\], expected \[km\/s\*\*2\]/);
+  });
+});
