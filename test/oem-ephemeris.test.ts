@@ -113,7 +113,7 @@ describe('interpolation settled at load', () => {
     expect(DEFAULT_INTERPOLATION).toEqual({ method: 'HERMITE', degree: 7 });
     const r = parseOemFile(kvn('COMMENT no interpolation named', 20), 'x.oem');
     expect(r.oem!.segments[0]!.metadata.interpolation).toEqual({ method: 'HERMITE', degree: 7, stated: false });
-    expect(r.notes.map((n) => n.note)).toEqual(['no INTERPOLATION given: HERMITE of degree 7 is used (Keepclear\'s default)']);
+    expect(r.notes.map((n) => n.note)).toEqual(['no INTERPOLATION given: HERMITE of degree 7 is used (Keepclear\'s default method)']);
   });
   it('too few states for the degree: the degree is lowered, said in a note', () => {
     const r = parseOemFile(kvn('INTERPOLATION = LAGRANGE\nINTERPOLATION_DEGREE = 7', 4), 'x.oem');

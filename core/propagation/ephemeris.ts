@@ -167,7 +167,8 @@ export class EphemerisTrajectory implements Trajectory {
       return;
     }
     const m = p.m;
-    // Centred window: m/2 nodes each side for even m; for odd m the extra node on the nearer side.
+    // Centred window: m/2 nodes each side for even m; for odd m the extra node on the nearer side
+    // (so odd windows change at mid-interval, a step the size of the interpolation error).
     let first = m % 2 === 0 ? i + 1 - m / 2 : i - (m - 1) / 2 + (s - x[i]! > x[i + 1]! - s ? 1 : 0);
     if (first < 0) first = 0;
     if (first > p.n - m) first = p.n - m;

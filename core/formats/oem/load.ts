@@ -55,9 +55,11 @@ function interpolationOf(seg: OemMessageSegment, nodes: number, l: Loader): OemI
       return l.reject('OEM_UNSUPPORTED', line,
         `INTERPOLATION = ${meta.interpolation} is not supported: Keepclear interpolates ${OEM_INTERPOLATIONS.join(', ')} — this segment is skipped`);
     method = m;
-  } else l.note(seg.line, `no INTERPOLATION given: ${DEFAULT_INTERPOLATION.method} of degree ${DEFAULT_INTERPOLATION.degree} is used (Keepclear's default)`);
+  }
   let degree = meta.interpolationDegree ?? (meta.interpolation === undefined ? DEFAULT_INTERPOLATION.degree : DEFAULT_DEGREE[method]);
-  if (meta.interpolation !== undefined && meta.interpolationDegree === undefined)
+  if (meta.interpolation === undefined)
+    l.note(seg.line, `no INTERPOLATION given: ${method} of degree ${degree} is used (Keepclear's default method)`);
+  else if (meta.interpolationDegree === undefined)
     l.note(line, `no INTERPOLATION_DEGREE given: degree ${degree} is used for ${method}`);
   if (method === 'LINEAR' && degree !== 1) {
     l.note(meta.lines['INTERPOLATION_DEGREE'] ?? line, `INTERPOLATION = LINEAR has degree 1; INTERPOLATION_DEGREE = ${degree} is ignored`);
