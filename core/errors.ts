@@ -25,6 +25,12 @@ export type ErrorCode =
   | 'CDM_COVARIANCE'
   | 'CDM_STRUCTURE'
   | 'OEM_FIELD'
+  | 'OEM_MISSING_KEYWORD'
+  | 'OEM_STRUCTURE'
+  | 'OEM_EPOCH_ORDER'
+  | 'OEM_UNITS'
+  | 'OEM_COVARIANCE'
+  | 'OEM_UNSUPPORTED'
   // propagation
   | 'PROPAGATION_FAILED'
   // arguments and runs

@@ -10,15 +10,15 @@ import { buildCdm, type CdmParseResult, type CdmReadOptions } from './cdm-build.
 import type { CdmBlock } from './cdm-keywords.js';
 import { emptySection, type RawCommentPlace, type RawSection } from './cdm-raw.js';
 
-type XNode = Record<string, unknown> & { ':@'?: Record<string, string> };
+export type XNode = Record<string, unknown> & { ':@'?: Record<string, string> };
 
-const tagOf = (n: XNode): string | undefined => Object.keys(n).find((k) => k !== ':@');
-const childrenOf = (n: XNode): XNode[] => (n[tagOf(n)!] as XNode[] | undefined) ?? [];
-const isElement = (n: XNode): boolean => {
+export const tagOf = (n: XNode): string | undefined => Object.keys(n).find((k) => k !== ':@');
+export const childrenOf = (n: XNode): XNode[] => (n[tagOf(n)!] as XNode[] | undefined) ?? [];
+export const isElement = (n: XNode): boolean => {
   const t = tagOf(n);
   return t !== undefined && t !== '#text' && !t.startsWith('?') && t !== '#comment';
 };
-const textOf = (n: XNode): string =>
+export const textOf = (n: XNode): string =>
   childrenOf(n).map((c) => (typeof c['#text'] === 'string' ? c['#text'] : '')).join('');
 
 /** Containers inside a segment and the block their leaves belong to. */
@@ -32,7 +32,7 @@ const CONTAINER_PLACE: Record<string, RawCommentPlace> = {
  * walk visits elements, so one forward cursor suffices. Comments, CDATA and processing
  * instructions are blanked first (newlines kept) so a tag name inside them cannot match.
  */
-class LineFinder {
+export class LineFinder {
   private cursor = 0;
   private readonly masked: string;
   private readonly starts: number[] = [0];
