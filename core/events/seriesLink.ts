@@ -156,6 +156,7 @@ function seriesOf(group: readonly Item[]): Series {
 }
 
 function linkPair(items: Item[]): Series[] {
+  if (items.length === 1) return [seriesOf(items)];
   items.sort(byTca);
   return linkGroup(items).map(seriesOf);
 }

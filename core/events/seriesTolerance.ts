@@ -40,7 +40,7 @@
  */
 import type { StateArray } from './encounter.js';
 import type { ConjunctionEvent } from './event.js';
-import { defaultCovariance, regimeOf } from '../risk/covarianceDefault.js';
+import { regimeOf } from '../risk/covarianceDefault.js';
 import { DEFAULT_COVARIANCE_TABLE } from '../risk/defaultCovarianceTable.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
 import { MU_EARTH_WGS72 } from '../units.js';
@@ -104,12 +104,13 @@ function objectView(id: string, state: StateArray, epoch: Instant, dataTime: Ins
   // CREATION_DATE, not from its TCA.
   const spanDays = Math.max(0, (tca - Math.min(epoch, dataTime)) / MS_PER_DAY);
   const meanMotion = orbit.periodS > 0 ? SECONDS_PER_DAY / orbit.periodS : 15; // rev/day
-  const regime = regimeOf({ meanMotion, eccentricity: Math.min(orbit.e, 0.99) });
+  const row = DEFAULT_COVARIANCE_TABLE[regimeOf({ meanMotion, eccentricity: Math.min(orbit.e, 0.99) })];
   return {
     id,
     spanDays,
-    fallbackSigmaM: defaultCovariance(regime, spanDays).sigmaM[1],
-    growthMPerDay: DEFAULT_COVARIANCE_TABLE[regime].growthMPerDay[1],
+    // defaultCovariance's along-track σ, √(σ₀² + (g·age)²), without building its matrix
+    fallbackSigmaM: Math.hypot(row.atEpochM[1], row.growthMPerDay[1] * spanDays),
+    growthMPerDay: row.growthMPerDay[1],
     periodS: orbit.periodS,
   };
 }
