@@ -4,7 +4,7 @@
  * 60-s grid would have on the same inputs (measured on a sample of pairs, then scaled).
  *
  *   npm run bench                 all cases
- *   npm run bench -- one fleet    only the named cases (one, fleet, all, memory)
+ *   npm run bench -- one fleet    only the named cases (one, fleet, all, memory, series, world)
  *   BENCH_SIZE=10000 npm run bench -- one
  */
 import { availableParallelism } from 'node:os';
@@ -14,6 +14,8 @@ import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import { runScreening } from '../core/screening/run.js';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import type { Instant } from '../core/time/instant.js';
+import { benchDemoWorld } from './demoWorld.js';
+import { benchSeries } from './series.js';
 
 const SIZE = Number(process.env.BENCH_SIZE ?? 30_000);
 const START = Date.parse('2026-12-07T00:00:00.000Z') as Instant;
@@ -59,6 +61,9 @@ function measureDistanceCost(): void {
 }
 
 async function main(): Promise<void> {
+  if (want('series')) benchSeries();
+  if (want('world')) benchDemoWorld();
+  if (cases.length > 0 && cases.every((c) => c === 'series' || c === 'world')) return;
   const workers = availableParallelism();
   console.log(`Keepclear bench: synthetic catalogue of ${SIZE} objects (seed 1), ${workers} worker(s), node ${process.version}`);
   const tGen = performance.now();

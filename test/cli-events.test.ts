@@ -29,8 +29,8 @@ const contract = (e: EventJson) => Object.fromEntries(CONTRACT_FIELDS.map((k) =>
 
 let dir: string;
 let db: string;
-let first: Output; // screen of 80001, 5 km sphere
-let second: Output; // screen of 80003, 3 km sphere (the newest run)
+let first: Output; // screen of 100001, 5 km sphere
+let second: Output; // screen of 100003, 3 km sphere (the newest run)
 
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'keepclear-cli-events-'));
@@ -41,10 +41,10 @@ beforeAll(() => {
   writeFileSync(catalog, formatOmmJson(scenario.catalog));
   db = join(dir, 'events.db');
   const common = ['--db', db, '--start', '2026-12-07T00:00:00Z', '--days', '2', '--workers', '0', '--json', '-'];
-  const a = keepclear(['screen', '--catalog', fleet, '--catalog', catalog, '--primary', '80001', ...common]);
+  const a = keepclear(['screen', '--catalog', fleet, '--catalog', catalog, '--primary', '100001', ...common]);
   expect(a.code, a.stderr).toBe(0);
   first = JSON.parse(a.stdout) as Output;
-  const b = keepclear(['screen', '--primary', '80003', '--threshold-km', '3', ...common]);
+  const b = keepclear(['screen', '--primary', '100003', '--threshold-km', '3', ...common]);
   expect(b.code, b.stderr).toBe(0);
   second = JSON.parse(b.stdout) as Output;
   expect(first.events.length).toBeGreaterThan(0);
@@ -70,7 +70,7 @@ describe('keepclear events', () => {
     expect(r.code, r.stderr).toBe(0);
     const out = JSON.parse(r.stdout) as Output;
     expect(out.run!.id).toBe(first.run!.id);
-    expect(out.run!.primaries).toEqual(['80001']);
+    expect(out.run!.primaries).toEqual(['100001']);
     expect(out.events.map((e) => [e.id, e.tca, e.missKm])).toEqual(first.events.map((e) => [e.id, e.tca, e.missKm]));
     expect(out.events.map(contract)).toEqual(first.events.map(contract));
   });

@@ -206,7 +206,7 @@ describe('keepclear screen --json -', () => {
   let out: ScreenJson;
   beforeAll(() => {
     db = join(dir, 'sphere.db');
-    r = screen(db, ['--primary', '80001', '--json', '-']);
+    r = screen(db, ['--primary', '100001', '--json', '-']);
   });
 
   it('exits 0 and writes only JSON to stdout', () => {
@@ -227,10 +227,10 @@ describe('keepclear screen --json -', () => {
     out = JSON.parse(r.stdout) as ScreenJson;
     expectContractShape(out);
     expect(out.run.thresholdKm).toBe(5); // the documented default
-    expect(out.run.primaries).toEqual(['80001']);
+    expect(out.run.primaries).toEqual(['100001']);
     expect(out.events.length).toBeGreaterThan(0);
     for (const e of out.events) {
-      expect(e.primary).toBe('80001');
+      expect(e.primary).toBe('100001');
       expect(e.missKm).toBeLessThanOrEqual(5 + SCREEN_MISS_TOL_KM);
       const t = parseIso(e.tca)!;
       expect(t).toBeGreaterThanOrEqual(windowStart);
@@ -240,7 +240,7 @@ describe('keepclear screen --json -', () => {
 
   it('finds every planted encounter of the primary in the window at the designed TCA and miss', () => {
     out = JSON.parse(r.stdout) as ScreenJson;
-    const planted = plantedIn(['80001']);
+    const planted = plantedIn(['100001']);
     expect(planted.length).toBeGreaterThan(0);
     for (const p of planted) {
       const e = out.events.find((x) => x.primary === p.primary && x.secondary === p.secondary && Math.abs(parseIso(x.tca)! - p.tca) < 1000);
@@ -278,7 +278,7 @@ describe('keepclear screen --json -', () => {
 });
 
 describe('keepclear screen --volume-rtn-km', () => {
-  const primaries = ['80001', '80003'];
+  const primaries = ['100001', '100003'];
   const [A_R, A_T, A_N] = [1, 10, 2];
   /**
    * Entry and exit are written to the ms. The metric Σ(x/a)² changes at most 2·|x|·v/a² per
@@ -378,18 +378,18 @@ describe('keepclear screen --all', () => {
 
 describe('keepclear screen: bad arguments exit 2 and touch no database', () => {
   const cases: [string, string[], RegExp][] = [
-    ['both --primary and --all', ['--primary', '80001', '--all'], /exactly one of --primary/],
+    ['both --primary and --all', ['--primary', '100001', '--all'], /exactly one of --primary/],
     ['neither --primary nor --all', [], /exactly one of --primary/],
-    ['--days -1', ['--primary', '80001', '--days', '-1'], /--days must be/],
-    ['--threshold-km abc', ['--primary', '80001', '--threshold-km', 'abc'], /--threshold-km must be/],
-    ['unknown option', ['--primary', '80001', '--bogus', 'x'], /unknown option --bogus/],
-    ['--volume-rtn-km 1,2', ['--primary', '80001', '--volume-rtn-km', '1,2'], /--volume-rtn-km needs three/],
-    ['both volumes', ['--primary', '80001', '--threshold-km', '5', '--volume-rtn-km', '1,2,3'], /either --threshold-km or --volume-rtn-km/],
-    ['--start tomorrow', ['--primary', '80001', '--start', 'tomorrow'], /--start must be an ISO 8601/],
-    ['--start 07/12/2026', ['--primary', '80001', '--start', '07/12/2026'], /--start must be an ISO 8601/],
-    ['--start 2026-02-30T00:00:00Z', ['--primary', '80001', '--start', '2026-02-30T00:00:00Z'], /--start must be an ISO 8601/],
-    ['--workers -1', ['--primary', '80001', '--workers', '-1'], /--workers must be/],
-    ['a stray argument', ['--primary', '80001', 'extra'], /unexpected argument "extra"/],
+    ['--days -1', ['--primary', '100001', '--days', '-1'], /--days must be/],
+    ['--threshold-km abc', ['--primary', '100001', '--threshold-km', 'abc'], /--threshold-km must be/],
+    ['unknown option', ['--primary', '100001', '--bogus', 'x'], /unknown option --bogus/],
+    ['--volume-rtn-km 1,2', ['--primary', '100001', '--volume-rtn-km', '1,2'], /--volume-rtn-km needs three/],
+    ['both volumes', ['--primary', '100001', '--threshold-km', '5', '--volume-rtn-km', '1,2,3'], /either --threshold-km or --volume-rtn-km/],
+    ['--start tomorrow', ['--primary', '100001', '--start', 'tomorrow'], /--start must be an ISO 8601/],
+    ['--start 07/12/2026', ['--primary', '100001', '--start', '07/12/2026'], /--start must be an ISO 8601/],
+    ['--start 2026-02-30T00:00:00Z', ['--primary', '100001', '--start', '2026-02-30T00:00:00Z'], /--start must be an ISO 8601/],
+    ['--workers -1', ['--primary', '100001', '--workers', '-1'], /--workers must be/],
+    ['a stray argument', ['--primary', '100001', 'extra'], /unexpected argument "extra"/],
   ];
   const dbs = cases.map((_, k) => `never-${k}.db`);
   let results: Run[];
@@ -429,7 +429,7 @@ describe('keepclear screen: failures exit 1', () => {
   });
 
   it('an empty database says to import a catalogue first', () => {
-    const res = screen(join(dir, 'empty.db'), ['--primary', '80001'], false);
+    const res = screen(join(dir, 'empty.db'), ['--primary', '100001'], false);
     expect(res.code).toBe(1);
     expect(res.stderr).toMatch(/^keepclear: .*import/m);
   });

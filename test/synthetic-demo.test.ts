@@ -123,7 +123,10 @@ describe('demo scenario', () => {
   });
 
   it('history: four older sets, 12–24 h apart, consistent with the newest to within OD-like errors', () => {
-    const ids = [...demo.fleet.map((f) => f.objectId), ...demo.planted.map((p) => p.secondary)];
+    // every fleet member and every designed secondary (Z0001 = 330001 on), planted this week or not
+    const designed = demo.catalog.filter((e) => Number(e.objectId) >= 330_001).map((e) => e.objectId);
+    expect(designed.length).toBeGreaterThanOrEqual(demo.planted.length);
+    const ids = [...demo.fleet.map((f) => f.objectId), ...designed];
     expect(Object.keys(demo.history).sort()).toEqual([...ids].sort());
     const a = new Float64Array(6), b = new Float64Array(6);
     for (const id of ids) {
@@ -164,7 +167,15 @@ describe('demo scenario', () => {
     );
   });
 
-  it('refuses a catalogue that would collide with the fleet numbers', () => {
-    expect(() => buildDemoScenario({ catalogSize: 80_000 })).toThrow(/size/);
+  it('refuses a catalogue whose numbers would reach the designed secondaries (Z0001 = 330001)', () => {
+    // generated ids run from 110001: 200,000 objects end at 310000, 220,000 would pass 330000
+    expect(() => buildDemoScenario({ catalogSize: 220_000 })).toThrow(/size/);
+  });
+
+  it('numbers every object in the Alpha-5 range, above any real catalogue number (≥ 100000)', () => {
+    const ids = [...demo.fleet, ...demo.catalog].map((e) => Number(e.objectId));
+    expect(Math.min(...ids)).toBeGreaterThanOrEqual(100_000);
+    expect(Math.max(...ids)).toBeLessThanOrEqual(339_999); // Z9999, the last Alpha-5 number
+    expect(demo.fleet.map((f) => f.objectId)).toEqual(['100001', '100002', '100003', '100004', '100005']);
   });
 });

@@ -94,6 +94,24 @@ export function draftToElementSet(d: Draft, objectId: string, line: number, rng:
   };
 }
 
+/**
+ * The same set with every element rounded as a TLE prints it (epochs must already be TLE-exact):
+ * what a TLE export then writes reads back unchanged.
+ */
+export function roundToTlePrecision(es: ElementSet): ElementSet {
+  return {
+    ...es,
+    meanMotion: round(es.meanMotion, 8),
+    eccentricity: round(es.eccentricity, 7),
+    inclinationDeg: round(es.inclinationDeg, 4),
+    raanDeg: round(es.raanDeg, 4) % 360,
+    argPerigeeDeg: round(es.argPerigeeDeg, 4) % 360,
+    meanAnomalyDeg: round(es.meanAnomalyDeg, 4) % 360,
+    bstar: roundSignificant(es.bstar, 5),
+    meanMotionDot: round(es.meanMotionDot, 8),
+  };
+}
+
 /** An epoch `ageDays` before the reference, never after it. */
 export const epochBefore = (reference: Instant, ageDays: number): Instant =>
   tleExactEpoch(reference - ageDays * MS_PER_DAY, 'floor');

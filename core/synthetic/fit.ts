@@ -29,18 +29,19 @@ const MAX_ITERATIONS = 30;
 /** Central-difference steps: each moves the position by roughly a metre or less. */
 const STEPS = [1e-7, 1e-7, 1e-7, 1e-7, 1e-7, 1e-7];
 
-type Equinoctial = [number, number, number, number, number, number];
-type Template = Partial<ElementSet> & { objectId: string; epoch: Instant };
+/** n (rev/day), e·cos ϖ, e·sin ϖ, tan(i/2)·sin Ω, tan(i/2)·cos Ω, λ = M + ϖ (rad). */
+export type Equinoctial = [number, number, number, number, number, number];
+export type Template = Partial<ElementSet> & { objectId: string; epoch: Instant };
 export interface FitTarget { r: readonly number[]; v: readonly number[] }
 
 const RAD = 180 / Math.PI;
 
-function toEquinoctial(n: number, e: number, i: number, raan: number, argp: number, m: number): Equinoctial {
+export function toEquinoctial(n: number, e: number, i: number, raan: number, argp: number, m: number): Equinoctial {
   const lonPerigee = raan + argp, t = Math.tan(i / 2);
   return [n, e * Math.cos(lonPerigee), e * Math.sin(lonPerigee), t * Math.sin(raan), t * Math.cos(raan), lonPerigee + m];
 }
 
-function elementSetOf(x: Equinoctial, epoch: Instant, template: Template): ElementSet {
+export function elementSetOf(x: Equinoctial, epoch: Instant, template: Template): ElementSet {
   const [n, af, ag, chi, psi, lambda] = x;
   const e = Math.hypot(af, ag);
   const lonPerigee = e > 0 ? Math.atan2(ag, af) : 0;

@@ -4,21 +4,15 @@ import { Sgp4Trajectory } from '../propagation/sgp4.js';
 import type { Instant } from '../time/instant.js';
 import { tleExactEpoch } from './draft.js';
 import { fitElementSetToState } from './fit.js';
+import { withOrbitDeterminationError } from './odError.js';
 import type { Rng } from './random.js';
 
 /**
  * Older element sets consistent with the newest one, as a tracking network would have issued:
  * the newest set propagated back to each older epoch, its state disturbed by an orbit-
- * determination error, and refitted. Later, "covariance from element-set history" propagates
- * these to newer epochs and takes the statistics of the differences.
- *
- * Error sizes (1σ; rough figures from memory for public LEO element sets at epoch): radial
- * 30 m, along-track 150 m, cross-track 40 m. Velocity errors are drawn mostly drift-free in the
- * Clohessy–Wiltshire sense (rotating-frame along-track rate −2n·δR), plus 1.5 mm/s along-track so the
- * along-track difference grows by a few hundred metres per day, as it does between real sets.
+ * determination error (odError.ts), and refitted. Later, "covariance from element-set history"
+ * propagates these to newer epochs and takes the statistics of the differences.
  */
-export const OD_SIGMA_M = { radial: 30, alongTrack: 150, crossTrack: 40 } as const;
-const DRIFT_SIGMA_KMS = 1.5e-6;
 
 export interface HistoryOptions {
   readonly count?: number; // default 4
@@ -39,27 +33,7 @@ export function buildHistory(newest: ElementSet, rng: Rng, opts: HistoryOptions 
     const epoch = t as Instant;
     const failure = trajectory.stateInto(epoch, buf, 0);
     if (failure) throw new KeepclearError('INTERNAL', `history of ${newest.objectId}: ${failure}`);
-    const r = [buf[0]!, buf[1]!, buf[2]!], v = [buf[3]!, buf[4]!, buf[5]!];
-    const rn = Math.hypot(...r);
-    const R = r.map((x) => x / rn);
-    const h = [r[1]! * v[2]! - r[2]! * v[1]!, r[2]! * v[0]! - r[0]! * v[2]!, r[0]! * v[1]! - r[1]! * v[0]!];
-    const hn = Math.hypot(...h);
-    const N = h.map((x) => x / hn);
-    const T = [N[1]! * R[2]! - N[2]! * R[1]!, N[2]! * R[0]! - N[0]! * R[2]!, N[0]! * R[1]! - N[1]! * R[0]!];
-    const n = hn / (rn * rn); // angular rate, rad/s
-    const dR = rng.normal(0, OD_SIGMA_M.radial / 1000);
-    const dT = rng.normal(0, OD_SIGMA_M.alongTrack / 1000);
-    const dN = rng.normal(0, OD_SIGMA_M.crossTrack / 1000);
-    // Relative velocity in the rotating frame (CW: drift-free when ẏ = −2n·x), then to inertial
-    // by adding ω × δr with ω = n·N: +n·δR along T and −n·δT along R.
-    const xDot = rng.normal(0, (n * OD_SIGMA_M.crossTrack) / 1000);
-    const yDot = -2 * n * dR + rng.normal(0, DRIFT_SIGMA_KMS);
-    const zDot = rng.normal(0, (n * OD_SIGMA_M.crossTrack) / 1000);
-    const dvR = xDot - n * dT, dvT = yDot + n * dR, dvN = zDot;
-    const target = {
-      r: [0, 1, 2].map((j) => r[j]! + dR * R[j]! + dT * T[j]! + dN * N[j]!),
-      v: [0, 1, 2].map((j) => v[j]! + dvR * R[j]! + dvT * T[j]! + dvN * N[j]!),
-    };
+    const target = withOrbitDeterminationError([buf[0]!, buf[1]!, buf[2]!], [buf[3]!, buf[4]!, buf[5]!], rng);
     out.push(
       fitElementSetToState(target, epoch, {
         ...newest,

@@ -13,8 +13,13 @@ import { RE } from './j2.js';
  * earlier epoch so that SGP4 from that epoch reproduces it.
  */
 export type Geometry =
-  /** velocity turned by `angleDeg` about the primary's radial direction, near-circular */
-  | { kind: 'crossing'; angleDeg: number }
+  /**
+   * velocity turned by `angleDeg` about the primary's radial direction, at circular speed times
+   * `speedFactor` (default 1: the same period as a circular primary, so the pair can meet again
+   * on following revolutions; 1.01 puts the TCA at the secondary's perigee of a 2 % eccentric
+   * orbit with a 3 % longer period, and it cannot)
+   */
+  | { kind: 'crossing'; angleDeg: number; speedFactor?: number }
   /** like crossing, on an eccentric path with a radial velocity: a breakup fragment */
   | { kind: 'fragment'; angleDeg: number; speedFactor: number; radialKmS: number }
   /** primary velocity plus a small difference in the primary's RTN frame, km/s */
@@ -51,7 +56,20 @@ const combo = (...terms: [number, readonly number[]][]): number[] =>
 
 const DEG = Math.PI / 180;
 
-export function plantEncounter(spec: PlantSpec): Planted {
+/** Where a planted approach puts the two objects at TCA (TEME km, km/s). */
+export interface PlantedStates {
+  readonly primary: { readonly r: number[]; readonly v: number[] };
+  readonly secondary: { readonly r: number[]; readonly v: number[] };
+  readonly relativeSpeedKmS: number;
+  readonly approachAngleDeg: number;
+}
+
+/**
+ * The states of a planted approach at TCA, before any fit: the primary's SGP4 state and the
+ * secondary offset by the miss vector perpendicular to the relative velocity. Also what a
+ * synthetic CDM reports.
+ */
+export function plantStates(spec: Pick<PlantSpec, 'primary' | 'tca' | 'missKm' | 'missAngleDeg' | 'geometry'>): PlantedStates {
   const buf = new Float64Array(6);
   const failure = new Sgp4Trajectory(spec.primary).stateInto(spec.tca, buf, 0);
   if (failure) throw new KeepclearError('INTERNAL', `planting near ${spec.primary.objectId}: ${failure}`);
@@ -65,7 +83,7 @@ export function plantEncounter(spec: PlantSpec): Planted {
     v2 = combo([1, v1], [g.deltaRtnKmS[0], R], [g.deltaRtnKmS[1], T], [g.deltaRtnKmS[2], N]);
   } else {
     const c = Math.cos(g.angleDeg * DEG), s = Math.sin(g.angleDeg * DEG);
-    const speed = g.kind === 'fragment' ? vCirc * g.speedFactor : vCirc;
+    const speed = vCirc * (g.speedFactor ?? 1);
     const radial = g.kind === 'fragment' ? g.radialKmS : 0;
     v2 = combo([speed * c, T], [speed * s, N], [radial, R]);
   }
@@ -78,8 +96,18 @@ export function plantEncounter(spec: PlantSpec): Planted {
   const e2 = cross(w, e1);
   const phi = spec.missAngleDeg * DEG;
   const r2 = combo([1, r1], [spec.missKm * Math.cos(phi), e1], [spec.missKm * Math.sin(phi), e2]);
+  const cosAngle = dot(v1, v2) / (Math.hypot(v1[0]!, v1[1]!, v1[2]!) * Math.hypot(v2[0]!, v2[1]!, v2[2]!));
+  return {
+    primary: { r: r1, v: v1 },
+    secondary: { r: r2, v: v2 },
+    relativeSpeedKmS: relSpeed,
+    approachAngleDeg: Math.acos(Math.max(-1, Math.min(1, cosAngle))) / DEG,
+  };
+}
 
-  const secondary = fitElementSetToState({ r: r2, v: v2 }, spec.tca, {
+export function plantEncounter(spec: PlantSpec): Planted {
+  const states = plantStates(spec);
+  const secondary = fitElementSetToState(states.secondary, spec.tca, {
     objectId: spec.secondaryId,
     name: spec.secondaryName,
     epoch: spec.fitEpoch,
@@ -88,10 +116,5 @@ export function plantEncounter(spec: PlantSpec): Planted {
   const perigeeAlt = semiMajorAxisKm(secondary.meanMotion) * (1 - secondary.eccentricity) - RE;
   if (perigeeAlt < MIN_SECONDARY_PERIGEE_ALT_KM)
     throw new KeepclearError('INTERNAL', `planted secondary ${spec.secondaryId} has perigee at ${perigeeAlt.toFixed(0)} km`);
-  const cosAngle = dot(v1, v2) / (Math.hypot(v1[0]!, v1[1]!, v1[2]!) * Math.hypot(v2[0]!, v2[1]!, v2[2]!));
-  return {
-    secondary,
-    relativeSpeedKmS: relSpeed,
-    approachAngleDeg: Math.acos(Math.max(-1, Math.min(1, cosAngle))) / DEG,
-  };
+  return { secondary, relativeSpeedKmS: states.relativeSpeedKmS, approachAngleDeg: states.approachAngleDeg };
 }

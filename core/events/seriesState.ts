@@ -1,0 +1,97 @@
+/**
+ * The state of a series as of the newest data, in words of our own:
+ *
+ * - `new`                  seen once so far (one screening run or one received message), TCA ahead.
+ * - `updated`              seen again: two or more sightings, TCA ahead, and no newer screening
+ *                          run that covered it has missed it.
+ * - `no-longer-predicted`  a screening run newer than the last sighting, whose window covers the
+ *                          series' TCA (with the series' own tolerance on either side) and whose
+ *                          primaries include either object of the pair (or all objects), did not
+ *                          find it. A run that left either object out (flagged) says nothing.
+ *                          A later sighting (a run or a message) makes the series `updated` again.
+ * - `past`                 the TCA of the newest sighting lies before the newest data (`asOf`):
+ *                          nothing to act on any more. Takes precedence over the others.
+ *
+ * Only screening runs can miss a conjunction: a received message speaks of its own conjunction
+ * and says nothing about others.
+ */
+import type { Instant } from '../time/instant.js';
+import type { Series } from './seriesLink.js';
+import { sightingView, tcaTolerance } from './seriesTolerance.js';
+
+export type SeriesState = 'new' | 'updated' | 'no-longer-predicted' | 'past';
+
+export const SERIES_STATE_MEANING: Readonly<Record<SeriesState, string>> = {
+  new: 'seen once so far; TCA ahead',
+  updated: 'seen again; TCA ahead',
+  'no-longer-predicted': 'a newer screening run covering its TCA did not find it',
+  past: 'its TCA has elapsed relative to the newest data',
+};
+
+/** What a screening run covered: enough to tell whether it should have seen a conjunction. */
+export interface ScreeningCoverage {
+  /** run id; the same as the SeriesSource id of the run's sightings */
+  readonly id: string;
+  /** the run's time: the same as its SeriesSource.createdAt */
+  readonly createdAt: Instant;
+  readonly start: Instant;
+  readonly end: Instant;
+  readonly primaries: readonly string[] | 'all';
+  /** objects the run left out (propagation failures) */
+  readonly flagged?: readonly string[];
+}
+
+export interface SeriesStatus {
+  readonly state: SeriesState;
+  readonly asOf: Instant;
+  /** TCA of the newest sighting */
+  readonly tca: Instant;
+  readonly sightings: number;
+  /** creation time and source of the newest sighting */
+  readonly lastSeen: Instant;
+  readonly lastSeenBy: string;
+  /** the newest screening run that covered the TCA after the last sighting and did not find it */
+  readonly missedBy: string | null;
+}
+
+/** The newest data time among sources (screening runs and received messages). */
+export function newestDataTime(sources: Iterable<{ readonly createdAt: Instant }>): Instant | null {
+  let newest: Instant | null = null;
+  for (const s of sources) if (newest === null || s.createdAt > newest) newest = s.createdAt;
+  return newest;
+}
+
+const screens = (run: ScreeningCoverage, a: string, b: string): boolean =>
+  (run.primaries === 'all' || run.primaries.includes(a) || run.primaries.includes(b)) &&
+  !(run.flagged ?? []).some((id) => id === a || id === b);
+
+/**
+ * State of one series. `runs`: the screening runs known (any order; runs that are sources of the
+ * series' sightings are fine to include). `asOf`: the newest data time (newestDataTime of every
+ * run and message), which decides `past`.
+ */
+export function seriesStatus(series: Series, runs: readonly ScreeningCoverage[], asOf: Instant): SeriesStatus {
+  const newest = series.members[series.members.length - 1]!;
+  const tca = newest.event.tca;
+  const base = {
+    asOf,
+    tca,
+    sightings: series.members.length,
+    lastSeen: newest.source.createdAt,
+    lastSeenBy: newest.source.id,
+  };
+  if (tca < asOf) return { ...base, state: 'past', missedBy: null };
+  // Where the TCA could be, by the newest sighting's own uncertainty.
+  const view = sightingView(newest.event, newest.source.createdAt);
+  const marginMs = tcaTolerance(view, view).seconds * 1000;
+  const seenBy = new Set(series.members.map((m) => m.source.id));
+  let missedBy: ScreeningCoverage | null = null;
+  for (const run of runs) {
+    if (run.createdAt <= newest.source.createdAt || seenBy.has(run.id)) continue;
+    if (run.start > tca - marginMs || run.end < tca + marginMs) continue;
+    if (!screens(run, series.primary, series.secondary)) continue;
+    if (!missedBy || run.createdAt > missedBy.createdAt || (run.createdAt === missedBy.createdAt && run.id > missedBy.id)) missedBy = run;
+  }
+  if (missedBy) return { ...base, state: 'no-longer-predicted', missedBy: missedBy.id };
+  return { ...base, state: series.members.length === 1 ? 'new' : 'updated', missedBy: null };
+}
