@@ -1,5 +1,5 @@
 import { KeepclearError, type Rejection } from '../core/errors.js';
-import { parseCdmFile, hardBodyRadiusFromAreaPc, type Cdm, type CdmObject } from '../core/formats/cdm.js';
+import { parseCdmFile, hardBodyRadiusFromAreaPc, type Cdm, type CdmObject } from '../core/formats/cdm/index.js';
 import { eme2000ToGcrf } from '../core/frames/eme2000.js';
 import { gcrfToTeme, itrfToTeme } from '../core/frames/teme.js';
 import { approachAngleDeg, relativeRtn } from '../core/screening/geometry.js';

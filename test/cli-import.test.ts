@@ -5,7 +5,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ElementSet } from '../core/elements/elementSet.js';
-import { formatTleFile } from '../core/formats/tle.js';
+import { formatTleFile } from '../core/formats/tle/index.js';
 import { instantFromMs, parseIso } from '../core/time/instant.js';
 import {
   countObjects,

@@ -10,7 +10,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { parseTle } from '../core/formats/tle.js';
+import { parseTle } from '../core/formats/tle/index.js';
 import { reasonForSgp4Code, Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import type { Instant } from '../core/time/instant.js';

@@ -1,8 +1,8 @@
 import { mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { KeepclearError } from '../../core/errors.js';
-import { formatTleFile } from '../../core/formats/tle.js';
-import { formatOmmJson } from '../../core/formats/omm-write.js';
+import { formatTleFile } from '../../core/formats/tle/index.js';
+import { formatOmmJson } from '../../core/formats/omm/index.js';
 import { buildDemoScenario } from '../../core/synthetic/demo.js';
 import { toIso } from '../../core/time/instant.js';
 import { openDatabase, eventsOfRun } from '../../db/index.js';

@@ -3,7 +3,7 @@
  * (CCSDS 508.0-B-1 section 6 / CCSDS 502.0 conventions), read strictly and written back so that
  * reading the text again gives the same double.
  */
-import { instantFromMs, MS_PER_DAY, parseIso, type Instant } from '../time/instant.js';
+import { instantFromMs, MS_PER_DAY, parseIso, type Instant } from '../../time/instant.js';
 
 const NUMBER_RE = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 const INTEGER_RE = /^[+-]?\d+$/;

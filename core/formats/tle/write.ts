@@ -2,15 +2,15 @@
  * TLE writer: exact-column lines with checksums, Alpha-5 catalogue numbers from 100000.
  * Values that a TLE field cannot hold are an error, never silently clipped.
  */
-import type { ElementSet } from '../elements/elementSet.js';
-import { KeepclearError } from '../errors.js';
-import { MS_PER_DAY } from '../time/instant.js';
+import type { ElementSet } from '../../elements/elementSet.js';
+import { KeepclearError } from '../../errors.js';
+import { MS_PER_DAY } from '../../time/instant.js';
 import {
   designatorToTle,
   encodeCatalogNumber,
   encodeExpField,
   tleChecksum,
-} from './tle-fields.js';
+} from './fields.js';
 
 const fail = (es: ElementSet, what: string): never => {
   throw new KeepclearError(

@@ -5,10 +5,10 @@
  * until the first `OBJECT =` line, and each `OBJECT =` line opens an object. A COMMENT belongs to
  * the block of the keyword that follows it (the standard allows comments only at block starts).
  */
-import type { Rejection } from '../errors.js';
-import { buildCdm, type CdmParseResult, type CdmReadOptions } from './cdm-build.js';
-import { CDM_KEYWORDS, type CdmBlock } from './cdm-keywords.js';
-import { emptySection, type RawComment, type RawEntry, type RawSection } from './cdm-raw.js';
+import type { Rejection } from '../../errors.js';
+import { buildCdm, type CdmParseResult, type CdmReadOptions } from './build.js';
+import { CDM_KEYWORDS, type CdmBlock } from './keywords.js';
+import { emptySection, type RawComment, type RawEntry, type RawSection } from './raw.js';
 
 const COMMENT_RE = /^\s*COMMENT(?:\s(.*))?$/;
 const PAIR_RE = /^\s*([A-Z0-9_]+)\s*=(.*)$/;

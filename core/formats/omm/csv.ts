@@ -3,12 +3,11 @@
  * providers distribute it). Quoting per RFC 4180; a quoted field may not span lines here
  * (no provider does that for OMM), and such a row is rejected with a reason.
  */
-import type { ElementSet } from '../elements/elementSet.js';
-import type { Rejection } from '../errors.js';
-import { OmmProblem, ommToElementSet } from './omm-fields.js';
-import { rejection, splitLines, type ParseResult } from './result.js';
+import type { ElementSet } from '../../elements/elementSet.js';
+import type { Rejection } from '../../errors.js';
+import { OmmProblem, ommToElementSet } from './fields.js';
+import { rejection, splitLines, type ParseResult } from '../result.js';
 
-export { formatOmmCsv } from './omm-write.js';
 
 /** Splits one CSV row; null when a quote is left open. */
 export function splitCsvRow(row: string): string[] | null {

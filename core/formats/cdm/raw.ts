@@ -3,7 +3,7 @@
  * unit text and line, already split into the message's sections. Keeping this step separate
  * means validation is written once and both syntaxes get the same checks and messages.
  */
-import type { CdmBlock } from './cdm-keywords.js';
+import type { CdmBlock } from './keywords.js';
 
 export interface RawEntry {
   readonly keyword: string;

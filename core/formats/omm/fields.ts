@@ -2,9 +2,9 @@
  * One OMM's keywords → ElementSet, shared by the KVN, XML, JSON and CSV readers so all four
  * apply the same rules (CCSDS 502.0-B-2 §4, OMM with MEAN_ELEMENT_THEORY = SGP4).
  */
-import type { ElementSet, SourceRef } from '../elements/elementSet.js';
-import type { ErrorCode } from '../errors.js';
-import { parseCcsdsEpoch } from './ccsds-time.js';
+import type { ElementSet, SourceRef } from '../../elements/elementSet.js';
+import type { ErrorCode } from '../../errors.js';
+import { parseCcsdsEpoch } from '../ccsds-time.js';
 
 /** One keyword's value as read, with the line it was on and its units when given. */
 export interface OmmField {

@@ -6,12 +6,11 @@
  * parsed on its own.
  */
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
-import type { ElementSet } from '../elements/elementSet.js';
-import type { Rejection } from '../errors.js';
-import { OmmProblem, ommToElementSet, type OmmField } from './omm-fields.js';
-import { rejection, type ParseResult } from './result.js';
+import type { ElementSet } from '../../elements/elementSet.js';
+import type { Rejection } from '../../errors.js';
+import { OmmProblem, ommToElementSet, type OmmField } from './fields.js';
+import { rejection, type ParseResult } from '../result.js';
 
-export { formatOmmXml } from './omm-write.js';
 
 const parser = new XMLParser({
   ignoreAttributes: false,

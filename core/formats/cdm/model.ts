@@ -5,10 +5,10 @@
  * them. Every block keeps its COMMENT lines, the source line of each keyword, and the keywords
  * the standard does not define (`extras`), so nothing received is lost.
  */
-import type { Matrix } from '../math/linalg.js';
-import type { Instant } from '../time/instant.js';
-import type { M, MPerS, StateVector } from '../units.js';
-import type { CDM_REF_FRAMES } from './cdm-keywords.js';
+import type { Matrix } from '../../math/linalg.js';
+import type { Instant } from '../../time/instant.js';
+import type { M, MPerS, StateVector } from '../../units.js';
+import type { CDM_REF_FRAMES } from './keywords.js';
 
 export type CdmRefFrame = (typeof CDM_REF_FRAMES)[number];
 

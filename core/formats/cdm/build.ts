@@ -4,18 +4,18 @@
  * keywords, duplicates, units, value syntax, mandatory keywords, two objects, covariance size
  * and positive semi-definiteness.
  */
-import type { Rejection, ErrorCode } from '../errors.js';
-import { vec3 } from '../units.js';
+import type { Rejection, ErrorCode } from '../../errors.js';
+import { vec3 } from '../../units.js';
 import {
   CDM_KEYWORDS, COV_AXES, COV_MANDATORY_DIM, COV_TERMS, OBJECT_BLOCKS, specsOf,
   type CdmBlock, type CdmKeywordSpec,
-} from './cdm-keywords.js';
+} from './keywords.js';
 import type {
   Cdm, CdmBlockInfo, CdmCovariance, CdmExtra, CdmObject, CdmStateVector, CdmRefFrame,
-} from './cdm-model.js';
-import type { RawCdm, RawSection } from './cdm-raw.js';
-import { parseCcsdsTime, parseCdmInteger, parseCdmNumber } from './cdm-values.js';
-import { assembleCovariance, judgeCovariance } from './cdm-covariance.js';
+} from './model.js';
+import type { RawCdm, RawSection } from './raw.js';
+import { parseCcsdsTime, parseCdmInteger, parseCdmNumber } from './values.js';
+import { assembleCovariance, judgeCovariance } from './covariance.js';
 
 export interface CdmParseResult {
   /** The complete validated message, or null when anything was refused. */

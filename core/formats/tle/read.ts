@@ -7,19 +7,18 @@
  * rejected record. One bad record never stops the file: the reader moves on to the next line
  * that starts with "1 " and is followed by a "2 " line.
  */
-import type { ElementSet } from '../elements/elementSet.js';
-import type { ErrorCode, Rejection } from '../errors.js';
-import { instantFromYearDoy } from '../time/instant.js';
-import { rejection, splitLines, type ParseResult } from './result.js';
+import type { ElementSet } from '../../elements/elementSet.js';
+import type { ErrorCode, Rejection } from '../../errors.js';
+import { instantFromYearDoy } from '../../time/instant.js';
+import { rejection, splitLines, type ParseResult } from '../result.js';
 import {
   decodeCatalogNumber,
   decodeExpField,
   designatorToOmm,
   fullYear,
   tleChecksum,
-} from './tle-fields.js';
+} from './fields.js';
 
-export { formatTle, formatTleRecord, formatTleFile } from './tle-write.js';
 
 const TLE_LINE_LENGTH = 69;
 

@@ -7,12 +7,11 @@
  * parsed on its own: a syntax error inside one object rejects that object only, and every
  * object's line (its opening brace) is known.
  */
-import type { ElementSet } from '../elements/elementSet.js';
-import type { Rejection } from '../errors.js';
-import { OmmProblem, ommToElementSet } from './omm-fields.js';
-import { rejection, type ParseResult } from './result.js';
+import type { ElementSet } from '../../elements/elementSet.js';
+import type { Rejection } from '../../errors.js';
+import { OmmProblem, ommToElementSet } from './fields.js';
+import { rejection, type ParseResult } from '../result.js';
 
-export { formatOmmJson } from './omm-write.js';
 
 interface Span {
   start: number;

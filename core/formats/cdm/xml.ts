@@ -5,10 +5,10 @@
  * validator first, so a broken file gets the parser's line number and no message at all.
  */
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
-import type { Rejection } from '../errors.js';
-import { buildCdm, type CdmParseResult, type CdmReadOptions } from './cdm-build.js';
-import type { CdmBlock } from './cdm-keywords.js';
-import { emptySection, type RawCommentPlace, type RawSection } from './cdm-raw.js';
+import type { Rejection } from '../../errors.js';
+import { buildCdm, type CdmParseResult, type CdmReadOptions } from './build.js';
+import type { CdmBlock } from './keywords.js';
+import { emptySection, type RawCommentPlace, type RawSection } from './raw.js';
 
 type XNode = Record<string, unknown> & { ':@'?: Record<string, string> };
 

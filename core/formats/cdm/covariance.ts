@@ -7,10 +7,10 @@
  * a large error in the velocity or drag terms. S is dimensionless with unit diagonal, and its
  * eigenvalues show how far from a valid covariance the message is, whatever its units.
  */
-import { nearestPsd, symmetricEigen, type Matrix } from '../math/linalg.js';
-import { COV_AXES, COV_MANDATORY_DIM, COV_TERMS, covKeyword } from './cdm-keywords.js';
-import { formatCdmNumber } from './cdm-values.js';
-import type { CdmCovarianceStatus } from './cdm-model.js';
+import { nearestPsd, symmetricEigen, type Matrix } from '../../math/linalg.js';
+import { COV_AXES, COV_MANDATORY_DIM, COV_TERMS, covKeyword } from './keywords.js';
+import { formatCdmNumber } from './values.js';
+import type { CdmCovarianceStatus } from './model.js';
 
 /**
  * Relative error of one correlation ρᵢⱼ = Cᵢⱼ/√(CᵢᵢCⱼⱼ) when each term is printed to 4

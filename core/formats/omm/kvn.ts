@@ -2,12 +2,11 @@
  * OMM in Keyword = Value Notation (CCSDS 502.0-B-2 §4, §7). A file may hold several OMMs one
  * after another; each starts at its CCSDS_OMM_VERS line. Units in square brackets are optional.
  */
-import type { ElementSet } from '../elements/elementSet.js';
-import type { Rejection } from '../errors.js';
-import { OmmProblem, ommToElementSet, type OmmField } from './omm-fields.js';
-import { rejection, splitLines, type ParseResult } from './result.js';
+import type { ElementSet } from '../../elements/elementSet.js';
+import type { Rejection } from '../../errors.js';
+import { OmmProblem, ommToElementSet, type OmmField } from './fields.js';
+import { rejection, splitLines, type ParseResult } from '../result.js';
 
-export { formatOmmKvn } from './omm-write.js';
 
 const KVN_RE = /^([A-Z][A-Z0-9_]*)\s*=\s*(.*)$/;
 const UNITS_RE = /^(.*?)\s*\[([^\]]*)\]$/;

@@ -2,16 +2,11 @@
  * Entry point for reading a CDM file whatever its syntax: KVN or XML is decided from the first
  * significant character, so callers (import, tests) need not know which they hold.
  */
-import { buildCdm, type CdmParseResult, type CdmReadOptions } from './cdm-build.js';
-import { CDM_KEYWORDS } from './cdm-keywords.js';
-import { parseCdmKvn } from './cdm-kvn.js';
-import { parseCdmXml } from './cdm-xml.js';
+import type { CdmParseResult, CdmReadOptions } from './build.js';
+import { CDM_KEYWORDS } from './keywords.js';
+import { parseCdmKvn } from './kvn.js';
+import { parseCdmXml } from './xml.js';
 
-export type { CdmParseResult, CdmReadOptions };
-export { buildCdm, parseCdmKvn, parseCdmXml };
-export { formatCdmKvn } from './cdm-write.js';
-export { hardBodyRadiusFromAreaPc } from './cdm-model.js';
-export type * from './cdm-model.js';
 
 const refuse = (code: 'NOT_TEXT' | 'FORMAT_UNKNOWN', file: string, line: number, reason: string): CdmParseResult =>
   ({ cdm: null, errors: [{ code, file, line, reason }], repairs: [] });

@@ -3,9 +3,9 @@
  * round-trip form so reading a written file gives back the same doubles; the epoch keeps
  * microseconds (see formatCcsdsEpoch).
  */
-import type { ElementSet } from '../elements/elementSet.js';
-import { toIso } from '../time/instant.js';
-import { formatCcsdsEpoch } from './ccsds-time.js';
+import type { ElementSet } from '../../elements/elementSet.js';
+import { toIso } from '../../time/instant.js';
+import { formatCcsdsEpoch } from '../ccsds-time.js';
 
 export interface OmmHeader {
   readonly originator?: string;

@@ -3,10 +3,10 @@
  * brackets, every COMMENT and every extra keyword, so that reading the text back gives the same
  * model. Numbers are printed with the shortest text that reads back to the same double.
  */
-import { COV_TERMS, specsOf, type CdmBlock, type CdmKeywordSpec } from './cdm-keywords.js';
-import type { Cdm, CdmBlockInfo, CdmObject } from './cdm-model.js';
-import type { Instant } from '../time/instant.js';
-import { formatCcsdsTime, formatCdmNumber } from './cdm-values.js';
+import { COV_TERMS, specsOf, type CdmBlock, type CdmKeywordSpec } from './keywords.js';
+import type { Cdm, CdmBlockInfo, CdmObject } from './model.js';
+import type { Instant } from '../../time/instant.js';
+import { formatCcsdsTime, formatCdmNumber } from './values.js';
 
 const WIDTH = 28; // longest keyword, COLLISION_PROBABILITY_METHOD, is 28 characters
 
