@@ -25,6 +25,13 @@ export type ErrorCode =
   | 'CDM_COVARIANCE'
   | 'CDM_STRUCTURE'
   | 'OEM_FIELD'
+  | 'INPUT_TOO_LARGE'
+  // the database file
+  | 'DATABASE_BUSY'
+  | 'DATABASE_READONLY'
+  | 'DATABASE_FULL'
+  | 'DATABASE_IO'
+  | 'DATABASE_DAMAGED'
   // propagation
   | 'PROPAGATION_FAILED'
   // arguments and runs

@@ -5,7 +5,8 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { encounterFromCdm, importCdmFile } from '../app/cdmImport.js';
+import { importCdmFile } from '../app/import/index.js';
+import { encounterFromCdm } from '../core/events/fromCdm.js';
 import { matchingCdm, SAME_CONJUNCTION_MS } from '../app/cdmMatch.js';
 import { RiskContext } from '../app/risk.js';
 import { parseCdmFile } from '../core/formats/cdm/index.js';

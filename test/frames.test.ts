@@ -23,7 +23,7 @@ import { apply, ARCSEC, chain, rot3, transpose } from '../core/frames/rotation.j
 import { gcrfToTeme, itrfToTeme, temeToGcrf, temeToItrf } from '../core/frames/teme.js';
 import { instantFromMs, type Instant } from '../core/time/instant.js';
 import { taiMinusUtc, ttCenturiesSinceJ2000, ut1DaysSinceJ2000 } from '../core/time/leapSeconds.js';
-import { vec3, type Frame, type Km, type KmPerS, type StateVector } from '../core/units.js';
+import { vec3, type Frame, type Km, type KmS, type StateVector } from '../core/units.js';
 
 type V3 = [number, number, number];
 interface Case {
@@ -43,7 +43,7 @@ const fx = JSON.parse(
 
 const sv = <F extends Frame>(r: readonly number[], v: readonly number[]): StateVector<F> => ({
   r: vec3<F, Km>(r[0]!, r[1]!, r[2]!),
-  v: vec3<F, KmPerS>(v[0]!, v[1]!, v[2]!),
+  v: vec3<F, KmS>(v[0]!, v[1]!, v[2]!),
 });
 const dist = (a: readonly number[], b: readonly number[]): number =>
   Math.hypot(a[0]! - b[0]!, a[1]! - b[1]!, a[2]! - b[2]!);

@@ -7,7 +7,7 @@
  */
 import type { Matrix } from '../../math/linalg.js';
 import type { Instant } from '../../time/instant.js';
-import type { M, MPerS, StateVector } from '../../units.js';
+import type { M, MS, StateVector } from '../../units.js';
 import type { CDM_REF_FRAMES } from './keywords.js';
 
 export type CdmRefFrame = (typeof CDM_REF_FRAMES)[number];
@@ -38,13 +38,13 @@ export interface CdmHeader extends CdmBlockInfo {
 export interface CdmRelative extends CdmBlockInfo {
   tca: Instant;
   missDistance: M;
-  relativeSpeed?: MPerS;
+  relativeSpeed?: MS;
   relativePositionR?: M;
   relativePositionT?: M;
   relativePositionN?: M;
-  relativeVelocityR?: MPerS;
-  relativeVelocityT?: MPerS;
-  relativeVelocityN?: MPerS;
+  relativeVelocityR?: MS;
+  relativeVelocityT?: MS;
+  relativeVelocityN?: MS;
   startScreenPeriod?: Instant;
   stopScreenPeriod?: Instant;
   screenVolumeFrame?: 'RTN' | 'TVN';

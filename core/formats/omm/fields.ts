@@ -4,6 +4,7 @@
  */
 import type { ElementSet, SourceRef } from '../../elements/elementSet.js';
 import type { ErrorCode } from '../../errors.js';
+import { canonicalObjectId } from '../../elements/objectId.js';
 import { parseCcsdsEpoch } from '../ccsds-time.js';
 
 /** One keyword's value as read, with the line it was on and its units when given. */
@@ -169,15 +170,15 @@ export function ommToElementSet(get: (k: string) => OmmField | undefined, ctx: O
   const argPerigeeDeg = range('ARG_OF_PERICENTER', 0, 360, false, ' deg');
   const meanAnomalyDeg = range('MEAN_ANOMALY', 0, 360, false, ' deg');
 
-  const catText = text('NORAD_CAT_ID') ?? '';
-  if (!/^\d+$/.test(catText)) bad('NORAD_CAT_ID', 'expected a catalogue number (digits)');
+  const objectId = canonicalObjectId(text('NORAD_CAT_ID') ?? '');
+  if (!/^\d+$/.test(objectId)) bad('NORAD_CAT_ID', 'expected a catalogue number (digits, or Alpha-5 such as A0001)');
   const cls = text('CLASSIFICATION_TYPE') || 'U';
   if (cls.length !== 1) bad('CLASSIFICATION_TYPE', "expected one letter such as 'U'");
 
   const name = text('OBJECT_NAME');
   const id = text('OBJECT_ID');
   return {
-    objectId: String(Number(catText)),
+    objectId,
     // Empty OBJECT_NAME / OBJECT_ID are accepted as unknown (public providers write them blank).
     name: name ? name : null,
     intlDesignator: id ? id : null,

@@ -4,10 +4,9 @@
  * the line checksum. Kept in one place so reader and writer cannot disagree.
  */
 
-/** Alpha-5 first characters: A–Z without I and O (so they cannot be read as 1 and 0). */
-const ALPHA5_LETTERS = 'ABCDEFGHJKLMNPQRSTUVWXYZ';
-/** Largest catalogue number Alpha-5 can express: Z9999 = 33·10000 + 9999. */
-export const ALPHA5_MAX = 339_999;
+import { ALPHA5_MAX, alpha5ToNumber, numberToAlpha5 } from '../../elements/objectId.js';
+
+export { ALPHA5_MAX };
 
 /**
  * Decodes the 5-character catalogue field. Returns the number, or null when the text is not a
@@ -16,13 +15,7 @@ export const ALPHA5_MAX = 339_999;
  */
 export function decodeCatalogNumber(field: string): number | null {
   if (field.length !== 5) return null;
-  const first = field[0] ?? '';
-  const idx = ALPHA5_LETTERS.indexOf(first);
-  if (idx >= 0) {
-    const rest = field.slice(1);
-    if (!/^\d{4}$/.test(rest)) return null;
-    return (idx + 10) * 10_000 + Number(rest);
-  }
+  if (/^[A-Z]/.test(field)) return alpha5ToNumber(field);
   if (!/^ *\d+$/.test(field)) return null;
   return Number(field);
 }
@@ -30,9 +23,7 @@ export function decodeCatalogNumber(field: string): number | null {
 /** Encodes a catalogue number in 5 columns (Alpha-5 from 100000); null if out of range. */
 export function encodeCatalogNumber(n: number): string | null {
   if (!Number.isInteger(n) || n < 0 || n > ALPHA5_MAX) return null;
-  if (n < 100_000) return String(n).padStart(5, '0');
-  const letter = ALPHA5_LETTERS[Math.floor(n / 10_000) - 10] ?? '';
-  return letter + String(n % 10_000).padStart(4, '0');
+  return n < 100_000 ? String(n).padStart(5, '0') : numberToAlpha5(n);
 }
 
 /** TLE checksum of columns 1–68: sum of digits, plus 1 for each '-', modulo 10. */

@@ -1,11 +1,8 @@
-import { KeepclearError, type Rejection } from '../core/errors.js';
-import { parseCdmFile, hardBodyRadiusFromAreaPc, type Cdm, type CdmObject } from '../core/formats/cdm/index.js';
-import { eme2000ToGcrf } from '../core/frames/eme2000.js';
-import { gcrfToTeme, itrfToTeme } from '../core/frames/teme.js';
-import { approachAngleDeg, relativeRtn } from '../core/screening/geometry.js';
-import type { ConjunctionEvent, Encounter, StateArray } from '../core/events/index.js';
-import type { Instant } from '../core/time/instant.js';
-import { vec3, type Km, type KmPerS, type StateVector } from '../core/units.js';
+import { KeepclearError, type Rejection } from '../../core/errors.js';
+import { parseCdmFile, hardBodyRadiusFromAreaPc, type CdmObject } from '../../core/formats/cdm/index.js';
+import { encounterFromCdm } from '../../core/events/fromCdm.js';
+import type { ConjunctionEvent, Encounter } from '../../core/events/index.js';
+import type { Instant } from '../../core/time/instant.js';
 import {
   createRun,
   eventsOfRun,
@@ -18,62 +15,16 @@ import {
   updateEventRisk,
   type ImportCounts,
   type KeepclearDb,
-} from '../db/index.js';
-import { matchingCdm, SAME_CONJUNCTION_MS } from './cdmMatch.js';
-import { RiskContext } from './risk.js';
-
-/** Runs made from received messages carry this fingerprint prefix (screening runs never do). */
-export const CDM_RUN_PREFIX = 'cdm:';
+} from '../../db/index.js';
+import { matchingCdm, SAME_CONJUNCTION_MS } from '../cdmMatch.js';
+import { RiskContext } from '../risk.js';
 
 export interface CdmImportOutcome {
   readonly counts: ImportCounts;
   readonly rejections: readonly Rejection[];
+  /** what the reader repaired or flagged (e.g. a covariance not PSD), with file:line */
   readonly repairs: readonly string[];
   readonly eventId: string | null;
-}
-
-/** Catalogue designators are stored as canonical ids: digits without leading zeros. */
-export const canonicalId = (designator: string): string =>
-  /^\d+$/.test(designator.trim()) ? String(Number(designator.trim())) : designator.trim();
-
-function toTeme(o: CdmObject, t: Instant): StateArray {
-  const s = o.state;
-  const r = vec3<'GCRF', Km>(s.r[0], s.r[1], s.r[2]);
-  const v = vec3<'GCRF', KmPerS>(s.v[0], s.v[1], s.v[2]);
-  let teme: StateVector<'TEME'>;
-  switch (o.metadata.refFrame) {
-    case 'ITRF':
-      teme = itrfToTeme({ r, v } as unknown as StateVector<'ITRF'>, t);
-      break;
-    case 'EME2000':
-      teme = gcrfToTeme(eme2000ToGcrf({ r, v } as unknown as StateVector<'EME2000'>), t);
-      break;
-    default:
-      teme = gcrfToTeme({ r, v }, t);
-  }
-  return [teme.r[0], teme.r[1], teme.r[2], teme.v[0], teme.v[1], teme.v[2]];
-}
-
-/** The conjunction a message describes, as an encounter (states in TEME at TCA). */
-export function encounterFromCdm(cdm: Cdm): Encounter {
-  const tca = cdm.relative.tca;
-  const p = toTeme(cdm.object1, tca), s = toTeme(cdm.object2, tca);
-  const epochOf = (o: CdmObject) => o.od.timeLastobEnd ?? tca;
-  return {
-    primary: canonicalId(cdm.object1.metadata.objectDesignator),
-    secondary: canonicalId(cdm.object2.metadata.objectDesignator),
-    tca,
-    missKm: Math.hypot(s[0] - p[0], s[1] - p[1], s[2] - p[2]),
-    relativeSpeedKmS: Math.hypot(s[3] - p[3], s[4] - p[4], s[5] - p[5]),
-    rtnKm: relativeRtn(p, s),
-    approachAngleDeg: approachAngleDeg(p, s),
-    entry: cdm.relative.screenEntryTime ?? null,
-    exit: cdm.relative.screenExitTime ?? null,
-    primaryState: p,
-    secondaryState: s,
-    primaryEpoch: epochOf(cdm.object1),
-    secondaryEpoch: epochOf(cdm.object2),
-  };
 }
 
 /**
@@ -147,7 +98,7 @@ export function importCdmFile(
     if (stored.imported === 0) return { counts, rejections: [], repairs: notes, eventId: null };
     const start = rv.startScreenPeriod ?? enc.tca;
     const end = rv.stopScreenPeriod && rv.stopScreenPeriod > start ? rv.stopScreenPeriod : ((start + 1) as Instant);
-    const runId = createRun(db, { start, end, volume, primaries: [enc.primary] }, `${CDM_RUN_PREFIX}${sha256}`, 2);
+    const runId = createRun(db, { start, end, volume, primaries: [enc.primary] }, sha256, 2, 'cdm');
     const [event] = finishRun(db, runId, { status: 'done', wallMs: 0, flagged: [], events: [{ ...enc, risk: riskWithNotes }] });
     const eventId = event!.id;
     linkCdmToEvent(db, stored.ids[0]!, eventId);
@@ -175,8 +126,8 @@ export function importCdmFile(
 
 /** The event of the newest screening run with the same pair (either order) and TCA. */
 function latestScreeningEvent(db: KeepclearDb, e: Encounter): ConjunctionEvent | null {
-  const run = latestRun(db, 'done');
-  if (!run || run.catalogFingerprint.startsWith(CDM_RUN_PREFIX)) return null;
+  const run = latestRun(db, 'done', ['screening', 'merge']);
+  if (!run) return null;
   const hit = eventsOfRun(db, run.id).find(
     (x) =>
       ((x.primary === e.primary && x.secondary === e.secondary) || (x.primary === e.secondary && x.secondary === e.primary)) &&
