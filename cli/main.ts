@@ -60,7 +60,7 @@ export async function main(argv: readonly string[]): Promise<number> {
   const program = buildProgram((c) => (code = c));
   try {
     if (argv.length === 0) {
-      process.stdout.write(program.helpInformation());
+      program.outputHelp();
       return 0;
     }
     await program.parseAsync([...argv], { from: 'user' });

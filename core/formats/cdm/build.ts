@@ -6,6 +6,7 @@
  */
 import type { Rejection, ErrorCode } from '../../errors.js';
 import { vec3 } from '../../units.js';
+import { quoteValue } from '../result.js';
 import {
   CDM_KEYWORDS, COV_AXES, COV_MANDATORY_DIM, COV_TERMS, OBJECT_BLOCKS, specsOf,
   type CdmBlock, type CdmKeywordSpec,
@@ -70,7 +71,7 @@ class Builder {
       return undefined;
     }
     const bad = (what: string): undefined => {
-      this.reject('CDM_FIELD', line, `${where} ${kw} = "${text}" ${what}`);
+      this.reject('CDM_FIELD', line, `${where} ${kw} = "${quoteValue(text)}" ${what}`);
       return undefined;
     };
     switch (spec.kind) {

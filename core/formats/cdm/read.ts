@@ -7,11 +7,21 @@ import { CDM_KEYWORDS } from './keywords.js';
 import { parseCdmKvn } from './kvn.js';
 import { parseCdmXml } from './xml.js';
 
+/**
+ * A CDM file holds one message of a few kilobytes (the full CCSDS 508.0-B-1 example with every
+ * optional block is 17 kB as KVN); 1 MiB is 60 times that. A larger file is refused unread: it
+ * is not one CDM, and its comments or values would be kept in the database.
+ */
+export const MAX_CDM_BYTES = 1024 * 1024;
 
-const refuse = (code: 'NOT_TEXT' | 'FORMAT_UNKNOWN', file: string, line: number, reason: string): CdmParseResult =>
+const refuse = (code: 'NOT_TEXT' | 'FORMAT_UNKNOWN' | 'INPUT_TOO_LARGE', file: string, line: number, reason: string): CdmParseResult =>
   ({ cdm: null, errors: [{ code, file, line, reason }], repairs: [] });
 
 export function parseCdmFile(input: Uint8Array | string, file: string, opts: CdmReadOptions = {}): CdmParseResult {
+  if (input.length > MAX_CDM_BYTES)
+    return refuse('INPUT_TOO_LARGE', file, 1,
+      `the file is ${input.length.toLocaleString('en-US')} ${typeof input === 'string' ? 'characters' : 'bytes'} long; a CDM is a few ` +
+        `kilobytes (at most ${MAX_CDM_BYTES.toLocaleString('en-US')} bytes are read): this is not one CDM, or it is damaged`);
   let text: string;
   if (typeof input === 'string') text = input;
   else {

@@ -6,7 +6,7 @@
 import type { ElementSet } from '../../elements/elementSet.js';
 import type { Rejection } from '../../errors.js';
 import { OmmProblem, ommToElementSet } from './fields.js';
-import { rejection, splitLines, type ParseResult } from '../result.js';
+import { MAX_RECORD_CHARS, overlongReason, rejection, splitLines, type ParseResult } from '../result.js';
 
 
 /** Splits one CSV row; null when a quote is left open. */
@@ -43,6 +43,10 @@ export function parseOmmCsv(text: string, file: string): ParseResult {
     const raw = lines[i] ?? '';
     if (raw.trim() === '') continue;
     const lineNo = i + 1;
+    if (raw.length > MAX_RECORD_CHARS) {
+      rejections.push(rejection('CSV_SYNTAX', file, lineNo, overlongReason('this row', raw.length)));
+      continue;
+    }
     const cells = splitCsvRow(raw);
     if (cells === null) {
       rejections.push(

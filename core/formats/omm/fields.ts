@@ -6,6 +6,7 @@ import type { ElementSet, SourceRef } from '../../elements/elementSet.js';
 import type { ErrorCode } from '../../errors.js';
 import { canonicalObjectId } from '../../elements/objectId.js';
 import { parseCcsdsEpoch } from '../ccsds-time.js';
+import { quoteValue } from '../result.js';
 
 /** One keyword's value as read, with the line it was on and its units when given. */
 export interface OmmField {
@@ -102,7 +103,7 @@ export function ommToElementSet(get: (k: string) => OmmField | undefined, ctx: O
   };
   const lineOf = (k: string): number => get(k)?.line ?? ctx.line;
   const bad = (k: string, what: string, code: ErrorCode = 'OMM_FIELD'): never => {
-    throw new OmmProblem(code, lineOf(k), `${k} is '${text(k)}': ${what}`);
+    throw new OmmProblem(code, lineOf(k), `${k} is '${quoteValue(text(k) ?? '')}': ${what}`);
   };
 
   // Header values, checked whenever present (also in JSON/CSV, where an empty cell is absent).

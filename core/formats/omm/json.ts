@@ -10,7 +10,7 @@
 import type { ElementSet } from '../../elements/elementSet.js';
 import type { Rejection } from '../../errors.js';
 import { OmmProblem, ommToElementSet } from './fields.js';
-import { rejection, type ParseResult } from '../result.js';
+import { MAX_RECORD_CHARS, overlongReason, rejection, type ParseResult } from '../result.js';
 
 
 interface Span {
@@ -81,6 +81,10 @@ export function parseOmmJson(text: string, file: string): ParseResult {
       rejection('JSON_SYNTAX', file, error.line, `JSON syntax error: ${error.what}; fix the JSON or re-download the file`),
     );
   for (const s of spans) {
+    if (s.end - s.start > MAX_RECORD_CHARS) {
+      rejections.push(rejection('OMM_FIELD', file, s.line, overlongReason('the object starting here', s.end - s.start)));
+      continue;
+    }
     let obj: unknown;
     try {
       obj = JSON.parse(text.slice(s.start, s.end));

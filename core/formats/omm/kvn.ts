@@ -5,7 +5,7 @@
 import type { ElementSet } from '../../elements/elementSet.js';
 import type { Rejection } from '../../errors.js';
 import { OmmProblem, ommToElementSet, type OmmField } from './fields.js';
-import { rejection, splitLines, type ParseResult } from '../result.js';
+import { MAX_RECORD_CHARS, overlongReason, rejection, splitLines, type ParseResult } from '../result.js';
 
 
 const KVN_RE = /^([A-Z][A-Z0-9_]*)\s*=\s*(.*)$/;
@@ -29,6 +29,15 @@ export function parseOmmKvn(text: string, file: string): ParseResult {
     const t = raw.trim();
     if (t === '' || t.startsWith('COMMENT')) continue;
     const lineNo = i + 1;
+    if (raw.length > MAX_RECORD_CHARS) {
+      // Not matched against KVN_RE: the OMM it is in is rejected with this reason.
+      if (cur === null) {
+        cur = { start: lineNo, fields: new Map(), problem: null };
+        blocks.push(cur);
+      }
+      cur.problem ??= new OmmProblem('OMM_FIELD', lineNo, overlongReason('this line', raw.length));
+      continue;
+    }
     const m = KVN_RE.exec(t);
     if (m && m[1] === 'CCSDS_OMM_VERS') {
       cur = { start: lineNo, fields: new Map(), problem: null };

@@ -9,7 +9,7 @@ import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import type { ElementSet } from '../../elements/elementSet.js';
 import type { Rejection } from '../../errors.js';
 import { OmmProblem, ommToElementSet, type OmmField } from './fields.js';
-import { rejection, type ParseResult } from '../result.js';
+import { MAX_RECORD_CHARS, overlongReason, rejection, type ParseResult } from '../result.js';
 
 
 const parser = new XMLParser({
@@ -111,6 +111,12 @@ function syntaxRejection(file: string, text: string, base: number, err: { msg: s
 export function parseOmmXml(text: string, file: string, chunkedAbove = CHUNKED_ABOVE): ParseResult {
   const scan = blankOut(text);
   const starts = [...scan.matchAll(OMM_OPEN_RE)].map((m) => m.index);
+  const closeRe = /<\/(?:[A-Za-z_][\w.-]*:)?omm\s*>/g;
+  const spans = starts.map((start) => {
+    closeRe.lastIndex = start;
+    const close = closeRe.exec(scan);
+    return { start, end: close ? close.index + close[0].length : text.length };
+  });
   const sets: ElementSet[] = [];
   const rejections: Rejection[] = [];
   const take = (o: OmmAt, src: string): void => {
@@ -121,31 +127,39 @@ export function parseOmmXml(text: string, file: string, chunkedAbove = CHUNKED_A
       rejections.push(rejection(e.code, file, e.line, e.reason));
     }
   };
+  const noOmm = (): ParseResult => ({
+    sets,
+    rejections: [rejection('OMM_MISSING_KEYWORD', file, 1, 'the XML holds no <omm> element: it is not an OMM file; check the file chosen')],
+  });
+  /** An overlong <omm> is rejected unread: the XML parser's memory grows far beyond its size. */
+  const overlong = (span: { start: number; end: number }): boolean => {
+    if (span.end - span.start <= MAX_RECORD_CHARS) return false;
+    rejections.push(rejection('OMM_FIELD', file, lineAt(text, span.start), overlongReason('this <omm> element', span.end - span.start)));
+    return true;
+  };
+  const parseOne = (span: { start: number; end: number }, end: number): void => {
+    const node = (parser.parse(text.slice(span.start, span.end)) as XmlNode)['omm'];
+    const first = Array.isArray(node) ? (node[0] as unknown) : undefined;
+    if (isNode(first)) take({ node: first, offset: span.start, end }, text);
+  };
 
   const valid = XMLValidator.validate(text);
-  if (valid === true && starts.length > chunkedAbove) {
-    // A large catalogue: one <omm> at a time, so the parsed tree of the whole file (≈10× the
-    // text in memory, measured 1.67 GB for 155 MB) never exists at once.
-    const closeRe = /<\/(?:[A-Za-z_][\w.-]*:)?omm\s*>/g;
-    for (let k = 0; k < starts.length; k++) {
-      const start = starts[k]!;
-      closeRe.lastIndex = start;
-      const close = closeRe.exec(scan);
-      const end = close ? close.index + close[0].length : text.length;
-      const node = (parser.parse(text.slice(start, end)) as XmlNode)['omm'];
-      const first = Array.isArray(node) ? (node[0] as unknown) : undefined;
-      if (isNode(first)) take({ node: first, offset: start, end: starts[k + 1] ?? text.length }, text);
-    }
+  const inside = spans.reduce((n, sp) => n + (sp.end - sp.start), 0);
+  const oversized = spans.some((sp) => sp.end - sp.start > MAX_RECORD_CHARS) || text.length - inside > MAX_RECORD_CHARS;
+  if (valid === true && starts.length === 0) return noOmm();
+  if (valid === true && (starts.length > chunkedAbove || oversized)) {
+    // A large catalogue (or one with an overlong part): one <omm> at a time, so the parsed tree
+    // of the whole file (≈10× the text in memory, measured 1.67 GB for 155 MB) never exists at once.
+    spans.forEach((span, k) => {
+      if (!overlong(span)) parseOne(span, starts[k + 1] ?? text.length);
+    });
     return { sets, rejections };
   }
   if (valid === true) {
     const doc = parser.parse(text) as XmlNode;
     const root = isNode(doc['ndm']) ? doc['ndm'] : doc;
     const omms = Array.isArray(root['omm']) ? (root['omm'] as unknown[]) : [];
-    if (omms.length === 0)
-      rejections.push(
-        rejection('OMM_MISSING_KEYWORD', file, 1, 'the XML holds no <omm> element: it is not an OMM file; check the file chosen'),
-      );
+    if (omms.length === 0) return noOmm();
     omms.forEach((n, k) => {
       if (isNode(n)) take({ node: n, offset: starts[k] ?? 0, end: starts[k + 1] ?? text.length }, text);
     });
@@ -153,22 +167,16 @@ export function parseOmmXml(text: string, file: string, chunkedAbove = CHUNKED_A
   }
 
   // Syntax error: retry each <omm>…</omm> on its own so the intact ones still import.
-  const closeRe = /<\/(?:[A-Za-z_][\w.-]*:)?omm\s*>/g;
   let reported = false;
-  for (const start of starts) {
-    closeRe.lastIndex = start;
-    const close = closeRe.exec(scan);
-    const end = close ? close.index + close[0].length : text.length;
-    const chunk = text.slice(start, end);
-    const v = XMLValidator.validate(chunk);
+  for (const span of spans) {
+    if (overlong(span)) continue;
+    const v = XMLValidator.validate(text.slice(span.start, span.end));
     if (v !== true) {
-      rejections.push(syntaxRejection(file, text, start, v.err));
+      rejections.push(syntaxRejection(file, text, span.start, v.err));
       reported = true;
       continue;
     }
-    const node = (parser.parse(chunk) as XmlNode)['omm'];
-    const first = Array.isArray(node) ? (node[0] as unknown) : undefined;
-    if (isNode(first)) take({ node: first, offset: start, end }, text);
+    parseOne(span, span.end);
   }
   if (!reported) rejections.push(syntaxRejection(file, text, 0, valid.err));
   return { sets, rejections };
