@@ -23,12 +23,40 @@ Keepclear is a decision aid. Defer to your screening provider's messages, your l
 practice and local rules before acting on any result.
 `;
 
+const HELP_WIDTH = 100;
+
+/** "keepclear screen [--a X] (--b | --c) …" broken between groups, continued under the first. */
+function wrapSynopsis(head: string, synopsis: string): string[] {
+  const groups: string[] = [];
+  let depth = 0;
+  let cur = '';
+  for (const ch of synopsis) {
+    if (ch === ' ' && depth === 0) {
+      if (cur) groups.push(cur);
+      cur = '';
+      continue;
+    }
+    if (ch === '[' || ch === '(') depth++;
+    if (ch === ']' || ch === ')') depth--;
+    cur += ch;
+  }
+  if (cur) groups.push(cur);
+  const indent = ' '.repeat(head.length + 1);
+  const lines = [head];
+  for (const g of groups) {
+    const last = lines[lines.length - 1]!;
+    if (last.length + 1 + g.length > HELP_WIDTH && last.trim() !== '') lines.push(`${indent}${g}`);
+    else lines[lines.length - 1] = `${last} ${g}`;
+  }
+  return lines;
+}
+
 /** Every command with its synopsis, every option and an example: the whole CLI on one page. */
 function commandsHelp(): string {
   const blocks = COMMANDS.map((c) => {
     const width = Math.max(...c.options.map((o) => o.flags.length));
     const options = c.options.map((o) => `      ${o.flags.padEnd(width)}  ${o.description}`);
-    return [`  keepclear ${c.name} ${c.synopsis}`, `    ${c.summary}`, ...options, `    example: ${c.examples[0]}`].join('\n');
+    return [...wrapSynopsis(`  keepclear ${c.name}`, c.synopsis), `    ${c.summary}`, ...options, `    example: ${c.examples[0]}`].join('\n');
   });
   return `\nCommands (keepclear COMMAND --help shows one command):\n\n${blocks.join('\n\n')}\n${GENERAL_HELP}`;
 }
