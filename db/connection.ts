@@ -20,7 +20,7 @@ export class KeepclearDb {
   // in hot loops (100,000 element sets per import), so statements are prepared once per SQL text.
   private readonly cache = new Map<string, Statement>();
 
-  constructor(path: string, sqlite: Database.Database, busyTimeoutMs: number) {
+  constructor(path: string, sqlite: Database.Database, busyTimeoutMs: number = DEFAULT_BUSY_TIMEOUT_MS) {
     this.path = path;
     this.sqlite = sqlite;
     this.busyTimeoutMs = busyTimeoutMs;
