@@ -1,5 +1,5 @@
-import type { Cdm, CdmObject } from '../core/formats/cdm.js';
-import { hardBodyRadiusFromAreaPc } from '../core/formats/cdm.js';
+import type { Cdm, CdmObject } from '../core/formats/cdm/index.js';
+import { hardBodyRadiusFromAreaPc } from '../core/formats/cdm/index.js';
 import type { Matrix } from '../core/math/linalg.js';
 import type { Encounter } from '../core/events/index.js';
 import { listCdms, type KeepclearDb, type StoredCdm } from '../db/index.js';

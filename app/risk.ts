@@ -11,7 +11,8 @@ export const TIER_SETTINGS_KEY = 'risk.tierThresholds';
 /**
  * Risk of screened encounters with what the database knows: each object's element-set history
  * (covariance source 2) or its newest element set (default table, source 3), and its
- * hard-body radius. Received CDM covariances (source 1) come in through `cdmCovariances`.
+ * hard-body radius. Received CDM covariances (source 1) come in through the `cdm` argument of
+ * assess() (app/cdmMatch.ts finds the message that matches an encounter).
  */
 export class RiskContext {
   private readonly history = new Map<string, ElementSet[]>();

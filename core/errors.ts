@@ -31,6 +31,13 @@ export type ErrorCode =
   | 'OEM_UNITS'
   | 'OEM_COVARIANCE'
   | 'OEM_UNSUPPORTED'
+  | 'INPUT_TOO_LARGE'
+  // the database file
+  | 'DATABASE_BUSY'
+  | 'DATABASE_READONLY'
+  | 'DATABASE_FULL'
+  | 'DATABASE_IO'
+  | 'DATABASE_DAMAGED'
   // propagation
   | 'PROPAGATION_FAILED'
   // arguments and runs

@@ -9,24 +9,35 @@ declare const frameBrand: unique symbol;
 
 export type Km = number & { readonly [unitBrand]: 'km' };
 export type M = number & { readonly [unitBrand]: 'm' };
-export type KmPerS = number & { readonly [unitBrand]: 'km/s' };
-export type MPerS = number & { readonly [unitBrand]: 'm/s' };
+/**
+ * Speeds are spelled unit + "S" everywhere, in types and in names: `KmS` (km/s, as in
+ * `relativeSpeedKmS`) and `MS` (m/s). A name ending in `Ms` (lower-case s) is milliseconds
+ * (`wallMs`); the plan JSON of DESIGN.md keeps its contract names (`deltaVMs` is m/s there).
+ */
+export type KmS = number & { readonly [unitBrand]: 'km/s' };
+export type MS = number & { readonly [unitBrand]: 'm/s' };
+/** @deprecated spelled `KmS` now; kept until every branch has merged, then removed. */
+export type KmPerS = KmS;
+/** @deprecated spelled `MS` now; kept until every branch has merged, then removed. */
+export type MPerS = MS;
 export type Seconds = number & { readonly [unitBrand]: 's' };
 export type Deg = number & { readonly [unitBrand]: 'deg' };
 export type Rad = number & { readonly [unitBrand]: 'rad' };
 
 export const km = (x: number): Km => x as Km;
 export const m = (x: number): M => x as M;
-export const kmPerS = (x: number): KmPerS => x as KmPerS;
-export const mPerS = (x: number): MPerS => x as MPerS;
+export const kmS = (x: number): KmS => x as KmS;
+export const mS = (x: number): MS => x as MS;
 export const seconds = (x: number): Seconds => x as Seconds;
 export const deg = (x: number): Deg => x as Deg;
 export const rad = (x: number): Rad => x as Rad;
 
 export const kmToM = (x: Km): M => (x * 1000) as M;
 export const mToKm = (x: M): Km => (x / 1000) as Km;
-export const kmPerSToMPerS = (x: KmPerS): MPerS => (x * 1000) as MPerS;
-export const mPerSToKmPerS = (x: MPerS): KmPerS => (x / 1000) as KmPerS;
+export const kmSToMS = (x: KmS): MS => (x * 1000) as MS;
+export const mSToKmS = (x: MS): KmS => (x / 1000) as KmS;
+/** @deprecated old spellings, kept until every branch has merged (then removed): use kmS, mS, kmSToMS, mSToKmS. */
+export const kmPerS = kmS, mPerS = mS, kmPerSToMPerS = kmSToMS, mPerSToKmPerS = mSToKmS;
 export const degToRad = (x: Deg): Rad => ((x * Math.PI) / 180) as Rad;
 export const radToDeg = (x: Rad): Deg => ((x * 180) / Math.PI) as Deg;
 
@@ -47,7 +58,7 @@ export const vec3 = <F extends Frame, U extends number = number>(
 /** Position and velocity in one frame, km and km/s. */
 export interface StateVector<F extends Frame> {
   readonly r: Vec3<F, Km>;
-  readonly v: Vec3<F, KmPerS>;
+  readonly v: Vec3<F, KmS>;
 }
 
 /** Physical constants. WGS-84 for conversions at the edges; SGP4 uses its own WGS-72 set inside. */
@@ -55,4 +66,4 @@ export const MU_EARTH_WGS84 = 398600.4418 as number; // km^3/s^2, NIMA TR8350.2 
 export const MU_EARTH_WGS72 = 398600.8 as number; // km^3/s^2, Spacetrack Report #3 / Vallado 2006 (WGS-72)
 export const R_EARTH_WGS84 = 6378.137 as Km; // km, WGS-84 equatorial radius
 export const R_EARTH_WGS72 = 6378.135 as Km; // km, WGS-72 equatorial radius (SGP4)
-export const G0 = 9.80665 as MPerS; // m/s^2 standard gravity (CGPM 1901), used in the rocket equation
+export const G0 = 9.80665; // m/s² standard gravity (CGPM 1901), used in the rocket equation (an acceleration, not a speed)

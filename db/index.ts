@@ -1,5 +1,15 @@
 /** The storage layer: the only place with SQL. Import from here. */
-export { KeepclearDb, openDatabase, inTransaction } from './connection.js';
+export {
+  KeepclearDb,
+  openDatabase,
+  inTransaction,
+  busyTimeoutFromEnv,
+  DEFAULT_BUSY_TIMEOUT_MS,
+  type OpenOptions,
+} from './connection.js';
+export { storageError } from './storageErrors.js';
+export { currentOwner, processAlive, type RunOwner } from './owner.js';
+export { RUN_KINDS } from './schemaV3.js';
 export { defaultDbPath, chooseDbPath } from './paths.js';
 export { MIGRATIONS, SCHEMA_VERSION, migrate, schemaVersion, describeDatabase, type Migration } from './migrations.js';
 export { getObject, countObjects, setHardBodyRadius, type StoredObject } from './objects.js';
@@ -26,6 +36,8 @@ export {
   getRun,
   listRuns,
   latestRun,
+  markInterruptedRuns,
+  type RunKind,
   type RunStatus,
   type RunRecord,
   type RunOutcome,

@@ -4,14 +4,23 @@ import type { ConjunctionEvent } from '../core/events/index.js';
 import { instantFromMs, type Instant } from '../core/time/instant.js';
 import { inTransaction, type KeepclearDb } from './connection.js';
 import { insertEvents, type NewEvent } from './events.js';
+import { currentOwner, type RunOwner } from './owner.js';
+import type { RUN_KINDS } from './schemaV3.js';
 
-export type RunStatus = 'running' | 'done' | 'cancelled' | 'failed';
+/** `interrupted`: the owning process died while the run was running (found on a later open). */
+export type RunStatus = 'running' | 'done' | 'cancelled' | 'failed' | 'interrupted';
+/** What made a run: a screening, a received CDM, (later) a merge of shards or a manoeuvre plan. */
+export type RunKind = (typeof RUN_KINDS)[number];
 
 export interface RunRecord {
   readonly id: string;
+  readonly kind: RunKind;
   readonly createdAt: Instant;
   readonly settings: ScreeningSettings;
-  /** catalogFingerprint() of the sets screened: tells whether two runs saw the same orbits */
+  /**
+   * screening: catalogFingerprint() of the sets screened (tells whether two runs saw the same
+   * orbits); cdm: SHA-256 of the message file
+   */
   readonly catalogFingerprint: string;
   readonly objectCount: number;
   readonly status: RunStatus;
@@ -20,10 +29,12 @@ export interface RunRecord {
   readonly wallMs: number | null;
   readonly eventCount: number | null;
   readonly flagged: readonly FlaggedObject[];
+  /** the process that created the run; null for runs stored before schema v3 */
+  readonly owner: RunOwner | null;
 }
 
 export interface RunOutcome {
-  readonly status: Exclude<RunStatus, 'running'>;
+  readonly status: Exclude<RunStatus, 'running' | 'interrupted'>;
   readonly wallMs: number;
   readonly flagged: readonly FlaggedObject[];
   /** ids and run ids are assigned here; any the caller set are ignored */
@@ -33,6 +44,7 @@ export interface RunOutcome {
 interface RunRow {
   id: string;
   seq: number;
+  kind: RunKind;
   created_at: number;
   start_ms: number;
   end_ms: number;
@@ -41,6 +53,8 @@ interface RunRow {
   catalog_fingerprint: string;
   object_count: number;
   status: RunStatus;
+  owner_pid: number | null;
+  owner_host: string | null;
   finished_at: number | null;
   wall_ms: number | null;
   event_count: number | null;
@@ -53,6 +67,7 @@ function fromRow(db: KeepclearDb, r: RunRow): RunRecord {
     .all(r.id) as FlaggedObject[];
   return {
     id: r.id,
+    kind: r.kind,
     createdAt: instantFromMs(r.created_at),
     settings: {
       start: instantFromMs(r.start_ms),
@@ -67,30 +82,34 @@ function fromRow(db: KeepclearDb, r: RunRow): RunRecord {
     wallMs: r.wall_ms,
     eventCount: r.event_count,
     flagged,
+    owner: r.owner_pid === null || r.owner_host === null ? null : { pid: r.owner_pid, host: r.owner_host },
   };
 }
 
 /**
- * Opens a run in status "running" and returns its id: "R" and a sequence number ("R12"), short
- * enough to type after --run. The number is taken inside a write transaction, so two processes
- * sharing the file cannot get the same one.
+ * Opens a run in status "running", owned by this process, and returns its id: "R" and a
+ * sequence number ("R12"), short enough to type after --run. The number is taken inside a write
+ * transaction, so two processes sharing the file cannot get the same one.
  */
 export function createRun(
   db: KeepclearDb,
   settings: ScreeningSettings,
   fingerprint: string,
   objectCount: number,
+  kind: RunKind = 'screening',
+  owner: RunOwner = currentOwner(),
 ): string {
   return inTransaction(db, () => {
     const seq = (db.stmt('SELECT COALESCE(MAX(seq), 0) + 1 FROM runs').pluck().get() as number);
     const id = `R${seq}`;
     db.stmt(
-      `INSERT INTO runs (id, seq, created_at, start_ms, end_ms, volume_json, primaries_json,
-         catalog_fingerprint, object_count, status)
-       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, 'running')`,
+      `INSERT INTO runs (id, seq, kind, created_at, start_ms, end_ms, volume_json, primaries_json,
+         catalog_fingerprint, object_count, status, owner_pid, owner_host)
+       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'running', ?, ?)`,
     ).run(
       id,
       seq,
+      kind,
       Date.now(),
       settings.start,
       settings.end,
@@ -98,6 +117,8 @@ export function createRun(
       JSON.stringify(settings.primaries),
       fingerprint,
       objectCount,
+      owner.pid,
+      owner.host,
     );
     return id;
   });
@@ -130,18 +151,52 @@ export function getRun(db: KeepclearDb, id: string): RunRecord | null {
   return row ? fromRow(db, row) : null;
 }
 
-/** Runs, newest first. */
-export function listRuns(db: KeepclearDb, limit = 100): RunRecord[] {
-  const rows = db.stmt('SELECT * FROM runs ORDER BY seq DESC LIMIT ?').all(limit) as RunRow[];
+/** Runs, newest first; only those of the given kinds when `kinds` is passed. */
+export function listRuns(db: KeepclearDb, limit = 100, kinds?: readonly RunKind[]): RunRecord[] {
+  const rows = (
+    kinds === undefined
+      ? db.stmt('SELECT * FROM runs ORDER BY seq DESC LIMIT ?').all(limit)
+      : db
+          .stmt('SELECT * FROM runs WHERE kind IN (SELECT value FROM json_each(?)) ORDER BY seq DESC LIMIT ?')
+          .all(JSON.stringify(kinds), limit)
+  ) as RunRow[];
   return rows.map((r) => fromRow(db, r));
 }
 
-/** The newest run, or the newest with the given status (e.g. 'done' for `keepclear events`). */
-export function latestRun(db: KeepclearDb, status?: RunStatus): RunRecord | null {
-  const row = (
-    status === undefined
-      ? db.stmt('SELECT * FROM runs ORDER BY seq DESC LIMIT 1').get()
-      : db.stmt('SELECT * FROM runs WHERE status = ? ORDER BY seq DESC LIMIT 1').get(status)
-  ) as RunRow | undefined;
+/**
+ * The newest run, or the newest with the given status (e.g. 'done' for `keepclear events`) and
+ * of the given kinds (e.g. ['screening']).
+ */
+export function latestRun(db: KeepclearDb, status?: RunStatus, kinds?: readonly RunKind[]): RunRecord | null {
+  const row = db
+    .stmt(
+      `SELECT * FROM runs
+        WHERE (@status IS NULL OR status = @status)
+          AND (@kinds IS NULL OR kind IN (SELECT value FROM json_each(@kinds)))
+        ORDER BY seq DESC LIMIT 1`,
+    )
+    .get({ status: status ?? null, kinds: kinds === undefined ? null : JSON.stringify(kinds) }) as RunRow | undefined;
   return row ? fromRow(db, row) : null;
+}
+
+/**
+ * Marks `interrupted` every run still `running` whose owner process is gone from this host
+ * (killed, crashed, power cut), so that no run stays "running" forever. Runs owned on other
+ * hosts (a database on a shared drive) are left alone: their processes cannot be checked from
+ * here. Returns the ids marked.
+ */
+export function markInterruptedRuns(db: KeepclearDb, host: string, alive: (pid: number) => boolean): string[] {
+  const candidates = db
+    .stmt("SELECT id, owner_pid FROM runs WHERE status = 'running' AND owner_host = ?")
+    .all(host) as { id: string; owner_pid: number | null }[];
+  const dead = candidates.filter((r) => r.owner_pid !== null && !alive(r.owner_pid)).map((r) => r.id);
+  if (dead.length === 0) return [];
+  return inTransaction(db, () => {
+    const mark = db.stmt(
+      "UPDATE runs SET status = 'interrupted', finished_at = ? WHERE id = ? AND status = 'running'",
+    );
+    const now = Date.now();
+    // Checked again under the write lock: the owner may have finished the run meanwhile.
+    return dead.filter((id) => mark.run(now, id).changes === 1);
+  });
 }

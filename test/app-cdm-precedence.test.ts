@@ -5,10 +5,11 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { encounterFromCdm, importCdmFile } from '../app/cdmImport.js';
+import { importCdmFile } from '../app/import/index.js';
+import { encounterFromCdm } from '../core/events/fromCdm.js';
 import { matchingCdm, SAME_CONJUNCTION_MS } from '../app/cdmMatch.js';
 import { RiskContext } from '../app/risk.js';
-import { parseCdmFile } from '../core/formats/cdm.js';
+import { parseCdmFile } from '../core/formats/cdm/index.js';
 import type { Encounter } from '../core/events/index.js';
 import type { Instant } from '../core/time/instant.js';
 import { listCdms, openDatabase } from '../db/index.js';

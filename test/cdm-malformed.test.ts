@@ -6,7 +6,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { parseCdmFile } from '../core/formats/cdm.js';
+import { parseCdmFile } from '../core/formats/cdm/index.js';
 import { rejectionLine } from '../core/errors.js';
 
 const dir = new URL('./fixtures/cdm/', import.meta.url);

@@ -4,7 +4,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { formatCdmKvn, parseCdmFile, parseCdmKvn, type Cdm } from '../core/formats/cdm.js';
+import { formatCdmKvn, parseCdmFile, parseCdmKvn, type Cdm } from '../core/formats/cdm/index.js';
 
 const files = [
   new URL('./authorities/ccsds-508/cdm-obligatory.kvn', import.meta.url),

@@ -4,8 +4,8 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { parseCdmFile, type Cdm, type CdmObject } from '../core/formats/cdm.js';
-import { CDM_KEYWORDS, COV_TERMS } from '../core/formats/cdm-keywords.js';
+import { parseCdmFile, type Cdm, type CdmObject } from '../core/formats/cdm/index.js';
+import { CDM_KEYWORDS, COV_TERMS } from '../core/formats/cdm/keywords.js';
 import { parseIso } from '../core/time/instant.js';
 
 const dir = new URL('./authorities/ccsds-508/', import.meta.url);

@@ -4,9 +4,9 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { hardBodyRadiusFromAreaPc, parseCdmFile } from '../core/formats/cdm.js';
-import { formatCcsdsTime, parseCcsdsTime, parseCdmNumber } from '../core/formats/cdm-values.js';
-import { judgeCovariance, psdTolerance } from '../core/formats/cdm-covariance.js';
+import { hardBodyRadiusFromAreaPc, parseCdmFile } from '../core/formats/cdm/index.js';
+import { formatCcsdsTime, parseCcsdsTime, parseCdmNumber } from '../core/formats/cdm/values.js';
+import { judgeCovariance, psdTolerance } from '../core/formats/cdm/covariance.js';
 import { parseIso, type Instant } from '../core/time/instant.js';
 
 describe('CCSDS times', () => {

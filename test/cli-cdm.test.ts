@@ -6,7 +6,7 @@
  *
  * The CCSDS 508.0-B-1 example messages (test/authorities/ccsds-508, see its README) carry an
  * OBJECT1 6×6 covariance that is not positive semi-definite (T–RDOT correlation −1.44). The
- * importer keeps such messages flagged (app/cdmImport.ts: "Pc falls back to maximum Pc"), and
+ * importer keeps such messages flagged (app/import/cdm.ts: "Pc falls back to maximum Pc"), and
  * DESIGN.md asks for maximum Pc when a covariance is doubtful. test/fixtures/cdm/valid-6x6.kvn
  * has the same layout with PSD covariances, so its Pc is the 2-D reference integral.
  */

@@ -73,6 +73,14 @@ describe('keepclear demo', () => {
     }
   });
 
+  it('leads with the counts per tier before any list of events (issue 7 item 5)', () => {
+    const lines = r.stdout.split('\n');
+    const counts = lines.findIndex((l) => /^Events by tier: /.test(l));
+    expect(counts).toBeGreaterThan(0);
+    const table = lines.findIndex((l) => l.startsWith('event '));
+    if (table >= 0) expect(counts).toBeLessThan(table);
+  });
+
   it('reports progress on stderr', () => {
     expect(r.stderr).toMatch(/screening: 100%/);
   });

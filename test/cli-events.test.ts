@@ -7,8 +7,8 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { formatOmmJson } from '../core/formats/omm-write.js';
-import { formatTleFile } from '../core/formats/tle.js';
+import { formatOmmJson } from '../core/formats/omm/index.js';
+import { formatTleFile } from '../core/formats/tle/index.js';
 import { DECISION_AID_NOTE } from '../core/risk/assess.js';
 import { buildDemoScenario } from '../core/synthetic/demo.js';
 import { runKeepclear, type Run } from './support/cli.js';
@@ -75,9 +75,9 @@ describe('keepclear events', () => {
     expect(out.events.map(contract)).toEqual(first.events.map(contract));
   });
 
-  it('--json FILE writes the same JSON to the file and the table to stdout', () => {
+  it('--json FILE writes the same JSON to the file and (with --all-events) the table to stdout', () => {
     const file = join(dir, 'events.json');
-    const r = keepclear(['events', '--db', db, '--run', first.run!.id, '--json', file]);
+    const r = keepclear(['events', '--db', db, '--run', first.run!.id, '--json', file, '--all-events']);
     expect(r.code, r.stderr).toBe(0);
     const out = JSON.parse(readFileSync(file, 'utf8')) as Output;
     expect(out.events.map((e) => e.id)).toEqual(first.events.map((e) => e.id));
@@ -91,8 +91,8 @@ describe('keepclear events', () => {
     expect(r.stderr).toMatch(/^keepclear: .*R999/);
   });
 
-  it('human output lists the events and carries the decision-aid note', () => {
-    const r = keepclear(['events', '--db', db]);
+  it('human output with --all-events lists every event and carries the decision-aid note', () => {
+    const r = keepclear(['events', '--db', db, '--all-events']);
     expect(r.code, r.stderr).toBe(0);
     expect(r.stdout).toContain(DECISION_AID_NOTE);
     expect(r.stdout).toMatch(/decision aid/i);
@@ -113,6 +113,6 @@ describe('keepclear events', () => {
   it('an empty database gives no run and no events', () => {
     const r = keepclear(['events', '--db', join(dir, 'empty.db'), '--json', '-']);
     expect(r.code, r.stderr).toBe(0);
-    expect(JSON.parse(r.stdout)).toEqual({ run: null, events: [] });
+    expect(JSON.parse(r.stdout)).toEqual({ caution: DECISION_AID_NOTE, run: null, events: [] });
   });
 });

@@ -7,11 +7,11 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import { detectFormat, parseElementFile } from '../core/formats/detect.js';
-import { parseOmmCsv, formatOmmCsv } from '../core/formats/omm-csv.js';
-import { parseOmmJson, formatOmmJson } from '../core/formats/omm-json.js';
-import { parseOmmKvn, formatOmmKvn } from '../core/formats/omm-kvn.js';
-import { parseOmmXml, formatOmmXml } from '../core/formats/omm-xml.js';
-import { parseTle } from '../core/formats/tle.js';
+import { parseOmmCsv, formatOmmCsv } from '../core/formats/omm/index.js';
+import { parseOmmJson, formatOmmJson } from '../core/formats/omm/index.js';
+import { parseOmmKvn, formatOmmKvn } from '../core/formats/omm/index.js';
+import { parseOmmXml, formatOmmXml } from '../core/formats/omm/index.js';
+import { parseTle } from '../core/formats/tle/index.js';
 import { generateCatalog } from '../core/synthetic/catalog.js';
 
 const FIX = new URL('./fixtures/formats/', import.meta.url);

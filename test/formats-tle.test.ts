@@ -7,7 +7,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { formatTle, formatTleFile, parseTle } from '../core/formats/tle.js';
+import { formatTle, formatTleFile, parseTle } from '../core/formats/tle/index.js';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import { instantFromMs, MS_PER_DAY } from '../core/time/instant.js';
 

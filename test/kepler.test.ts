@@ -17,7 +17,7 @@ import {
   sgp4RecoveredMeanElements,
   sgp4SemiMajorAxis,
 } from '../core/elements/kepler.js';
-import { parseTle } from '../core/formats/tle.js';
+import { parseTle } from '../core/formats/tle/index.js';
 import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import { km, MU_EARTH_WGS84 } from '../core/units.js';
 

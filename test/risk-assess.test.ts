@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { assessEncounter, DECISION_AID_NOTE } from '../core/risk/assess.js';
+import { assessEncounter } from '../core/risk/assess.js';
 import { cdmRtnFromLowerTriangle } from '../core/risk/covarianceCdm.js';
 import { DEFAULT_HBR_PER_OBJECT_M, hbrFromAreaM, combinedHbr } from '../core/risk/hardBody.js';
 import { pcMax } from '../core/risk/pcMax.js';
@@ -38,10 +38,6 @@ describe('tiers (defaults: Pc 1e-4 / 1e-7, common practice per NASA/SP-202050113
     expect(tierFor(null, 50)).toBe('routine');
     expect(tierFor(1e-5, 1, { pcPlan: 1e-5, pcMonitor: 1e-8, missPlanKm: 1, missMonitorKm: 5 })).toBe('plan');
     expect(new Set(Object.values(TIERS).map((t) => t.colour)).size).toBe(3);
-  });
-  it('decision-aid caution text is present', () => {
-    expect(DECISION_AID_NOTE).toMatch(/decision aid/);
-    expect(DECISION_AID_NOTE).toMatch(/screening provider/);
   });
 });
 

@@ -16,9 +16,9 @@ import {
   linkSeries, newestDataTime, seriesStatus, seriesTrend,
   type ConjunctionEvent, type Encounter, type ScreeningCoverage, type Series, type SeriesMember, type StateArray,
 } from '../core/events/index.js';
-import { parseCdmKvn, type Cdm, type CdmObject } from '../core/formats/cdm.js';
-import { formatTle } from '../core/formats/tle-write.js';
-import { parseTle } from '../core/formats/tle.js';
+import { parseCdmKvn, type Cdm, type CdmObject } from '../core/formats/cdm/index.js';
+import { formatTle } from '../core/formats/tle/index.js';
+import { parseTle } from '../core/formats/tle/index.js';
 import { eme2000ToGcrf } from '../core/frames/eme2000.js';
 import { gcrfToTeme } from '../core/frames/teme.js';
 import { Sgp4Trajectory } from '../core/propagation/sgp4.js';

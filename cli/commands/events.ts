@@ -1,45 +1,61 @@
 import { KeepclearError } from '../../core/errors.js';
-import type { ConjunctionEvent } from '../../core/events/index.js';
-import { defaultDbPath, eventsOfRun, getEventExtra, getRun, listRuns, openDatabase, type RunRecord } from '../../db/index.js';
-import { CDM_RUN_PREFIX } from '../../app/cdmImport.js';
-import { eventToJson, runToJson } from '../../app/eventJson.js';
-import { optString, parseArgs } from '../args.js';
-import { eventTable, writeJson } from '../output.js';
+import { defineCommand } from '../command.js';
+import { allEventsOption, dbOption, jsonOption } from '../options.js';
+
+interface EventsOptions {
+  db?: string;
+  run?: string;
+  json?: string;
+  allEvents?: boolean;
+}
 
 /**
  * `keepclear events [--db FILE] [--run ID] [--json FILE|-]`: the events of one run, or by
  * default those of the newest screening run plus every event made from a received CDM.
  */
-export async function eventsCommand(argv: readonly string[]): Promise<number> {
-  const args = parseArgs(argv, { valued: ['db', 'run', 'json'] });
-  if (args.positional.length > 0) throw new KeepclearError('BAD_ARGUMENT', `unexpected argument "${args.positional[0]}"`);
-  const db = openDatabase(optString(args, 'db') ?? defaultDbPath());
-  try {
-    const runId = optString(args, 'run');
-    let run: RunRecord | null;
-    let events: ConjunctionEvent[];
-    if (runId !== undefined) {
-      run = getRun(db, runId);
-      if (!run) throw new KeepclearError('NOT_FOUND', `no run "${runId}"; see the run ids in keepclear events --json -`);
-      events = eventsOfRun(db, run.id);
-    } else {
-      const runs = listRuns(db, 10_000).filter((r) => r.status !== 'running');
-      const screening = runs.filter((r) => !r.catalogFingerprint.startsWith(CDM_RUN_PREFIX));
-      run = screening.sort((a, b) => b.createdAt - a.createdAt)[0] ?? null;
-      const fromCdm = runs.filter((r) => r.catalogFingerprint.startsWith(CDM_RUN_PREFIX)).flatMap((r) => eventsOfRun(db, r.id));
-      events = [...(run ? eventsOfRun(db, run.id) : []), ...fromCdm].sort((a, b) => a.tca - b.tca);
+export default defineCommand<EventsOptions>({
+  name: 'events',
+  summary: 'show stored events: the newest screening run and received CDMs, or one run',
+  synopsis: '[--db FILE] [--run ID] [--json FILE|-] [--all-events]',
+  options: [
+    dbOption,
+    { flags: '--run <ID>', description: 'the events of this run (R12); default: the newest screening run and every received CDM' },
+    jsonOption,
+    allEventsOption,
+  ],
+  examples: ['keepclear events', 'keepclear events --run R12 --json -'],
+  async run(_args, o) {
+    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns } = await import('../../db/index.js');
+    const { eventToJson, runToJson } = await import('../../app/eventJson.js');
+    const { eventSummary } = await import('../present/events.js');
+    const { writeJsonWithCaution } = await import('../present/json.js');
+    const db = openDatabase(o.db ?? defaultDbPath());
+    try {
+      let run;
+      let events;
+      if (o.run !== undefined) {
+        run = getRun(db, o.run);
+        if (!run) throw new KeepclearError('NOT_FOUND', `no run "${o.run}"; see the run ids in keepclear events --json -`);
+        events = eventsOfRun(db, run.id);
+      } else {
+        run = latestRun(db, 'done', ['screening', 'merge']);
+        const fromCdm = listRuns(db, 10_000, ['cdm']).filter((r) => r.status === 'done').flatMap((r) => eventsOfRun(db, r.id));
+        events = [...(run ? eventsOfRun(db, run.id) : []), ...fromCdm].sort((a, b) => a.tca - b.tca);
+      }
+      if (o.json !== undefined) {
+        writeJsonWithCaution(o.json, {
+          run: run ? runToJson(run) : null,
+          // Extras (e.g. a message's reported Pc, kept apart from Keepclear's own) ride along.
+          events: events.map((e) => ({ ...eventToJson(e), extra: getEventExtra(db, e.id) ?? {} })),
+        });
+      }
+      if (o.json !== '-') {
+        if (run) process.stdout.write(`run ${run.id} (${run.kind}, ${run.status}): ${run.eventCount ?? 0} event(s)\n`);
+        process.stdout.write(eventSummary(events, o.allEvents === true));
+      }
+      return 0;
+    } finally {
+      db.close();
     }
-    const json = optString(args, 'json');
-    if (json !== undefined) {
-      writeJson(json, {
-        run: run ? runToJson(run) : null,
-        // Extras (e.g. a message's reported Pc, kept apart from Keepclear's own) ride along.
-        events: events.map((e) => ({ ...eventToJson(e), extra: getEventExtra(db, e.id) ?? {} })),
-      });
-    }
-    if (json !== '-') process.stdout.write(eventTable(events));
-    return 0;
-  } finally {
-    db.close();
-  }
-}
+  },
+});

@@ -1,15 +1,14 @@
-import { demoCommand } from './demo.js';
-import { eventsCommand } from './events.js';
-import { importCommand } from './import.js';
-import { screenCommand } from './screen.js';
+/**
+ * The commands of `keepclear`, in the order --help lists them. Adding a command: write
+ * cli/commands/NAME.ts exporting `defineCommand({...})` as default, and add one line here.
+ * Keep this file and the command files free of heavy imports (database, readers, plots):
+ * commands import those inside `run`, so `keepclear --help` starts fast.
+ */
+import type { CommandSpec } from '../command.js';
+import demo from './demo.js';
+import events from './events.js';
+import importCommand from './import.js';
+import screen from './screen.js';
 
-/** A CLI command: takes the arguments after its name, returns the exit code. */
-export type Command = (argv: readonly string[]) => Promise<number>;
-
-/** Registry of commands; each lives in its own file in this folder. */
-export const COMMANDS: Record<string, Command> = {
-  import: importCommand,
-  screen: screenCommand,
-  events: eventsCommand,
-  demo: demoCommand,
-};
+// Each spec is typed by its own options; the registry only needs to hand them to commander.
+export const COMMANDS: readonly CommandSpec<never>[] = [importCommand, screen, events, demo];

@@ -1,84 +1,152 @@
 import { KeepclearError } from '../../core/errors.js';
+import { canonicalObjectId } from '../../core/elements/objectId.js';
 import { parseIso, type Instant } from '../../core/time/instant.js';
 import type { ScreeningSettings, ScreeningVolume } from '../../core/screening/types.js';
-import { defaultDbPath, openDatabase } from '../../db/index.js';
-import { daysAfter, screenAndStore } from '../../app/screen.js';
-import { eventToJson, runToJson } from '../../app/eventJson.js';
-import { optFlag, optList, optNumber, optString, parseArgs } from '../args.js';
-import { canonicalObjectId } from '../ids.js';
-import { eventTable, progressReporter, writeJson } from '../output.js';
-import { importCatalogFiles } from './import.js';
+import { defineCommand, type ValueParser } from '../command.js';
+import { allEventsOption, dbOption, jsonOption, numberIn, repeatable, workersOption } from '../options.js';
 
 const DEFAULT_DAYS = 7;
 const DEFAULT_THRESHOLD_KM = 5;
+const MS_PER_DAY = 86_400_000;
 
-/** Screening settings from the command line (DESIGN.md CLI contract). */
-export function settingsFromArgs(args: ReturnType<typeof parseArgs>, now: number): ScreeningSettings {
-  const all = optFlag(args, 'all');
-  const primaryText = optString(args, 'primary');
-  if (all === (primaryText !== undefined)) {
+interface ScreenOptions {
+  catalog?: string[];
+  primary?: string[];
+  all?: boolean;
+  start?: Instant;
+  days?: number;
+  thresholdKm?: number;
+  volumeRtnKm?: [number, number, number];
+  db?: string;
+  json?: string;
+  workers?: number;
+  allEvents?: boolean;
+}
+
+const once = (name: string, previous: unknown): void => {
+  if (previous !== undefined) throw new KeepclearError('BAD_ARGUMENT', `option --${name} given twice`);
+};
+
+const primaryIds: ValueParser<string[]> = (text, previous) => {
+  once('primary', previous);
+  const ids = [...new Set(text.split(',').filter((x) => x.trim() !== '').map(canonicalObjectId))];
+  if (ids.length === 0) throw new KeepclearError('BAD_ARGUMENT', '--primary needs at least one id');
+  return ids;
+};
+
+const isoStart: ValueParser<Instant> = (text, previous) => {
+  once('start', previous);
+  const t = parseIso(text);
+  if (t === null) throw new KeepclearError('BAD_ARGUMENT', `--start must be an ISO 8601 UTC time (2026-12-03T00:00:00Z), got "${text}"`);
+  return t;
+};
+
+const rtnSemiAxes: ValueParser<[number, number, number]> = (text, previous) => {
+  once('volume-rtn-km', previous);
+  const parts = text.split(',').map((x) => Number(x.trim()));
+  if (parts.length !== 3 || parts.some((x) => !(x > 0 && x <= 1000))) {
+    throw new KeepclearError('BAD_ARGUMENT', `--volume-rtn-km needs three positive semi-axes R,T,N in km, got "${text}"`);
+  }
+  return [parts[0]!, parts[1]!, parts[2]!];
+};
+
+/** Screening settings from the checked options (DESIGN.md CLI contract); `now` is the default start. */
+export function settingsFrom(o: ScreenOptions, now: number): ScreeningSettings {
+  if ((o.all === true) === (o.primary !== undefined)) {
     throw new KeepclearError('BAD_ARGUMENT', 'give exactly one of --primary ID[,ID...] or --all');
   }
-  const startText = optString(args, 'start');
-  let start = now as Instant;
-  if (startText !== undefined) {
-    const t = parseIso(startText);
-    if (t === null) throw new KeepclearError('BAD_ARGUMENT', `--start must be an ISO 8601 UTC time (2026-12-03T00:00:00Z), got "${startText}"`);
-    start = t;
-  }
-  const days = optNumber(args, 'days', (x) => x > 0 && x <= 60, 'a number of days in (0, 60]') ?? DEFAULT_DAYS;
-  const threshold = optNumber(args, 'threshold-km', (x) => x > 0 && x <= 1000, 'a distance in km in (0, 1000]');
-  const rtnText = optString(args, 'volume-rtn-km');
-  if (threshold !== undefined && rtnText !== undefined) {
+  if (o.thresholdKm !== undefined && o.volumeRtnKm !== undefined) {
     throw new KeepclearError('BAD_ARGUMENT', 'give either --threshold-km or --volume-rtn-km, not both');
   }
-  let volume: ScreeningVolume = { kind: 'sphere', radiusKm: threshold ?? DEFAULT_THRESHOLD_KM };
-  if (rtnText !== undefined) {
-    const parts = rtnText.split(',').map((x) => Number(x.trim()));
-    if (parts.length !== 3 || parts.some((x) => !(x > 0 && x <= 1000))) {
-      throw new KeepclearError('BAD_ARGUMENT', `--volume-rtn-km needs three positive semi-axes R,T,N in km, got "${rtnText}"`);
-    }
-    volume = { kind: 'rtn-ellipsoid', rKm: parts[0]!, tKm: parts[1]!, nKm: parts[2]! };
-  }
-  const primaries = all ? 'all' : [...new Set(primaryText!.split(',').filter((x) => x.trim() !== '').map(canonicalObjectId))];
-  if (primaries !== 'all' && primaries.length === 0) throw new KeepclearError('BAD_ARGUMENT', '--primary needs at least one id');
-  return { start, end: daysAfter(start, days), volume, primaries };
+  const start = o.start ?? (now as Instant);
+  const volume: ScreeningVolume = o.volumeRtnKm
+    ? { kind: 'rtn-ellipsoid', rKm: o.volumeRtnKm[0], tKm: o.volumeRtnKm[1], nKm: o.volumeRtnKm[2] }
+    : { kind: 'sphere', radiusKm: o.thresholdKm ?? DEFAULT_THRESHOLD_KM };
+  const end = (start + (o.days ?? DEFAULT_DAYS) * MS_PER_DAY) as Instant;
+  return { start, end, volume, primaries: o.all ? 'all' : o.primary! };
 }
 
-export async function screenCommand(argv: readonly string[]): Promise<number> {
-  const args = parseArgs(argv, {
-    valued: ['catalog', 'primary', 'start', 'days', 'threshold-km', 'volume-rtn-km', 'db', 'json', 'workers'],
-    flags: ['all'],
-    repeatable: ['catalog'],
-  });
-  if (args.positional.length > 0) throw new KeepclearError('BAD_ARGUMENT', `unexpected argument "${args.positional[0]}"`);
-  const settings = settingsFromArgs(args, Date.now());
-  const workers = optNumber(args, 'workers', (x) => Number.isInteger(x) && x >= 0 && x <= 64, 'a whole number 0..64');
-  const json = optString(args, 'json');
-  const db = openDatabase(optString(args, 'db') ?? defaultDbPath());
-  let exit = 0;
-  const controller = new AbortController();
-  const onSigint = () => controller.abort();
-  process.once('SIGINT', onSigint);
-  try {
-    const catalogs = optList(args, 'catalog');
-    if (catalogs.length > 0 && !importCatalogFiles(db, catalogs, undefined, json === '-')) exit = 1;
-    const { run, events } = await screenAndStore(db, {
-      settings,
-      ...(workers !== undefined ? { workers } : {}),
-      onProgress: progressReporter('screening'),
-      signal: controller.signal,
-    });
-    for (const f of run.flagged) process.stderr.write(`keepclear: flagged ${f.id}: ${f.reason}\n`);
-    if (run.status === 'cancelled') process.stderr.write('keepclear: screening cancelled; partial results stored\n');
-    if (json !== undefined) writeJson(json, { run: runToJson(run), events: events.map(eventToJson) });
-    if (json !== '-') {
-      process.stdout.write(`run ${run.id}: ${events.length} event(s), ${run.objectCount} objects, ${((run.wallMs ?? 0) / 1000).toFixed(2)} s\n`);
-      process.stdout.write(eventTable(events));
+/**
+ * `keepclear screen`: imports --catalog files first, screens, stores the run with each event's
+ * risk, and shows what needs attention. Ctrl-C cancels; the partial run is stored as cancelled.
+ */
+export default defineCommand<ScreenOptions>({
+  name: 'screen',
+  summary: 'screen primaries (or all objects) against the catalogue for close approaches',
+  synopsis:
+    '[--catalog FILE]... (--primary ID[,ID...] | --all) [--start ISO8601] [--days N] ' +
+    '[--threshold-km X | --volume-rtn-km R,T,N] [--db FILE] [--json FILE|-] [--workers N] [--all-events]',
+  options: [
+    { flags: '--catalog <FILE>', description: 'import this catalogue file first (repeatable)', parse: repeatable },
+    { flags: '--primary <ID[,ID...]>', description: 'catalogue numbers of the primaries (Alpha-5 allowed)', parse: primaryIds },
+    { flags: '--all', description: 'every object is a primary (all-vs-all)' },
+    { flags: '--start <ISO8601>', description: 'window start, UTC (default: now)', parse: isoStart },
+    {
+      flags: '--days <N>',
+      description: `window length in days (default: ${DEFAULT_DAYS})`,
+      parse: numberIn('days', (x) => x > 0 && x <= 60, 'a number of days in (0, 60]'),
+    },
+    {
+      flags: '--threshold-km <X>',
+      description: `screening sphere radius in km (default: ${DEFAULT_THRESHOLD_KM})`,
+      parse: numberIn('threshold-km', (x) => x > 0 && x <= 1000, 'a distance in km in (0, 1000]'),
+    },
+    { flags: '--volume-rtn-km <R,T,N>', description: "screening ellipsoid semi-axes in the primary's RTN frame, km", parse: rtnSemiAxes },
+    dbOption,
+    jsonOption,
+    workersOption,
+    allEventsOption,
+  ],
+  examples: [
+    'keepclear screen --catalog catalog.json --primary 80001,80003 --start 2026-12-07T00:00:00Z --days 7',
+    'keepclear screen --all --days 1 --threshold-km 5 --json run.json',
+  ],
+  async run(_args, o) {
+    const settings = settingsFrom(o, Date.now());
+    const { openDatabase, defaultDbPath } = await import('../../db/index.js');
+    const { importFiles } = await import('../../app/import/index.js');
+    const { screenAndStore } = await import('../../app/screen.js');
+    const { eventToJson, runToJson } = await import('../../app/eventJson.js');
+    const { presentFileOutcome, presentImportTotal } = await import('../present/imports.js');
+    const { eventSummary } = await import('../present/events.js');
+    const { writeJsonWithCaution } = await import('../present/json.js');
+    const { progress } = await import('../present/progress.js');
+
+    const jsonOnly = o.json === '-';
+    const db = openDatabase(o.db ?? defaultDbPath());
+    const controller = new AbortController();
+    const onSigint = () => controller.abort();
+    process.once('SIGINT', onSigint);
+    const bar = progress('screening');
+    try {
+      let exit = 0;
+      if (o.catalog && o.catalog.length > 0) {
+        // With --json - the counts go to stderr: stdout carries only JSON.
+        const out = jsonOnly ? process.stderr : process.stdout;
+        const summary = importFiles(db, { files: o.catalog, onFile: (f) => presentFileOutcome(f, out) });
+        presentImportTotal(summary, out);
+        if (!summary.clean) exit = 1;
+      }
+      const { run, events } = await screenAndStore(db, {
+        settings,
+        ...(o.workers !== undefined ? { workers: o.workers } : {}),
+        onProgress: bar.update,
+        signal: controller.signal,
+      });
+      bar.stop();
+      for (const f of run.flagged) process.stderr.write(`keepclear: flagged ${f.id}: ${f.reason}\n`);
+      if (run.status === 'cancelled') process.stderr.write('keepclear: screening cancelled; partial results stored\n');
+      if (o.json !== undefined) writeJsonWithCaution(o.json, { run: runToJson(run), events: events.map(eventToJson) });
+      if (!jsonOnly) {
+        const seconds = ((run.wallMs ?? 0) / 1000).toFixed(2);
+        process.stdout.write(`run ${run.id}: ${events.length} event(s), ${run.objectCount} objects, ${seconds} s\n`);
+        process.stdout.write(eventSummary(events, o.allEvents === true));
+      }
+      return run.status === 'cancelled' ? 1 : exit;
+    } finally {
+      bar.stop();
+      process.off('SIGINT', onSigint);
+      db.close();
     }
-    return run.status === 'cancelled' ? 1 : exit;
-  } finally {
-    process.off('SIGINT', onSigint);
-    db.close();
-  }
-}
+  },
+});

@@ -42,7 +42,8 @@ export interface CatalogSummary {
   readonly latestEpoch: string | null;
 }
 
-export type RunStatus = 'running' | 'done' | 'cancelled' | 'failed';
+/** `interrupted`: its process died while it ran (marked when the database is next opened). */
+export type RunStatus = 'running' | 'done' | 'cancelled' | 'failed' | 'interrupted';
 
 export type ScreeningVolumeSummary =
   | { readonly kind: 'sphere'; readonly radiusKm: number }

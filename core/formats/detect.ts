@@ -5,12 +5,9 @@
  */
 import type { ElementSet } from '../elements/elementSet.js';
 import { KeepclearError, type Rejection } from '../errors.js';
-import { parseOmmCsv } from './omm-csv.js';
-import { parseOmmJson } from './omm-json.js';
-import { parseOmmKvn } from './omm-kvn.js';
-import { parseOmmXml } from './omm-xml.js';
+import { parseOmmCsv, parseOmmJson, parseOmmKvn, parseOmmXml } from './omm/index.js';
 import { decodeText } from './text.js';
-import { parseTle } from './tle.js';
+import { parseTle } from './tle/index.js';
 
 export type ElementFileFormat =
   | 'TLE'

@@ -8,7 +8,7 @@
  * Note: the FK5 reduction of teme.ts without δΔψ/δΔε lands in a frame that is neither exactly
  * (its equator carries the 1980 nutation's errors); both are within ~0.05″ of each other.
  */
-import { vec3, type Frame, type Km, type KmPerS, type StateVector } from '../units.js';
+import { vec3, type Frame, type Km, type KmS, type StateVector } from '../units.js';
 import { apply, ARCSEC, chain, rot1, rot2, rot3, transpose, type Mat3 } from './rotation.js';
 
 const MAS = 1e-3 * ARCSEC;
@@ -22,7 +22,7 @@ export const FRAME_BIAS: Mat3 = chain(rot1(-ETA0), rot2(XI0), rot3(D_ALPHA0));
 function rotate<A extends Frame, B extends Frame>(m: Mat3, s: StateVector<A>): StateVector<B> {
   const r = apply(m, s.r[0], s.r[1], s.r[2]);
   const v = apply(m, s.v[0], s.v[1], s.v[2]);
-  return { r: vec3<B, Km>(r[0], r[1], r[2]), v: vec3<B, KmPerS>(v[0], v[1], v[2]) };
+  return { r: vec3<B, Km>(r[0], r[1], r[2]), v: vec3<B, KmS>(v[0], v[1], v[2]) };
 }
 
 export const gcrfToEme2000 = (s: StateVector<'GCRF'>): StateVector<'EME2000'> => rotate(FRAME_BIAS, s);

@@ -11,7 +11,7 @@
  */
 import type { Instant } from '../time/instant.js';
 import { ttCenturiesSinceJ2000, ut1DaysSinceJ2000 } from '../time/leapSeconds.js';
-import { vec3, type Frame, type Km, type KmPerS, type StateVector } from '../units.js';
+import { vec3, type Frame, type Km, type KmS, type StateVector } from '../units.js';
 import type { EarthOrientation } from './earthOrientation.js';
 import {
   earthRotationRate,
@@ -24,7 +24,7 @@ import {
 import { apply, chain, rot1, rot2, rot3, transpose, type Mat3 } from './rotation.js';
 
 function state<F extends Frame>(r: [number, number, number], v: [number, number, number]): StateVector<F> {
-  return { r: vec3<F, Km>(r[0], r[1], r[2]), v: vec3<F, KmPerS>(v[0], v[1], v[2]) };
+  return { r: vec3<F, Km>(r[0], r[1], r[2]), v: vec3<F, KmS>(v[0], v[1], v[2]) };
 }
 
 /** r_GCRF = M · r_TEME at a UTC instant. */

@@ -6,7 +6,7 @@ import { sgp4init } from '../../node_modules/satellite.js/dist/propagation/sgp4i
 import type { ElementSet } from '../elements/elementSet.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
 import type { FailureReason, Trajectory } from './trajectory.js';
-import { vec3, type StateVector, type Km, type KmPerS } from '../units.js';
+import { vec3, type StateVector, type Km, type KmS } from '../units.js';
 
 const MS_PER_MIN = 60_000;
 
@@ -167,7 +167,7 @@ export class Sgp4Trajectory implements Trajectory {
     if (failure) return failure;
     return {
       r: vec3<'TEME', Km>(buf[0]!, buf[1]!, buf[2]!),
-      v: vec3<'TEME', KmPerS>(buf[3]!, buf[4]!, buf[5]!),
+      v: vec3<'TEME', KmS>(buf[3]!, buf[4]!, buf[5]!),
     };
   }
 }

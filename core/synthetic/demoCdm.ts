@@ -1,5 +1,5 @@
-import type { Cdm, CdmBlockInfo, CdmObject } from '../formats/cdm-model.js';
-import { formatCdmKvn } from '../formats/cdm-write.js';
+import type { Cdm, CdmBlockInfo, CdmObject } from '../formats/cdm/index.js';
+import { formatCdmKvn } from '../formats/cdm/index.js';
 import type { ElementSet } from '../elements/elementSet.js';
 import type { StateArray } from '../events/encounter.js';
 import { gcrfToEme2000 } from '../frames/eme2000.js';

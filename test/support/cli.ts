@@ -1,4 +1,4 @@
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -42,4 +42,42 @@ export interface EventJson {
   exit?: string | null;
   /** only in `events`: values of a received message, kept apart from Keepclear's */
   extra?: { reportedPc?: number | null; [k: string]: unknown };
+}
+
+export interface SpawnOptions {
+  /** extra environment (KEEPCLEAR_DB still points into the sandbox unless given here) */
+  readonly env?: Record<string, string>;
+  /** run as this user (tests running as root use it to meet real file permissions) */
+  readonly uid?: number;
+  readonly gid?: number;
+}
+
+/** The real command without blocking: the child (to watch or kill) and its result. */
+export function spawnKeepclear(args: string[], sandboxDir: string, opts: SpawnOptions = {}): {
+  child: ChildProcess;
+  done: Promise<Run & { signal: NodeJS.Signals | null }>;
+} {
+  const child = spawn(process.execPath, [join(ROOT, 'bin', 'keepclear.js'), ...args], {
+    cwd: ROOT,
+    env: { ...process.env, KEEPCLEAR_DB: join(sandboxDir, 'never-default.db'), ...opts.env },
+    ...(opts.uid !== undefined ? { uid: opts.uid } : {}),
+    ...(opts.gid !== undefined ? { gid: opts.gid } : {}),
+  });
+  let stdout = '', stderr = '';
+  child.stdout!.setEncoding('utf8').on('data', (d: string) => (stdout += d));
+  child.stderr!.setEncoding('utf8').on('data', (d: string) => (stderr += d));
+  const done = new Promise<Run & { signal: NodeJS.Signals | null }>((resolve, reject) => {
+    child.on('error', reject);
+    child.on('close', (code, signal) => resolve({ code: code ?? -1, signal, stdout, stderr }));
+  });
+  return { child, done };
+}
+
+/** Resolves when `check` holds (polled every `everyMs`), rejects after `timeoutMs`. */
+export async function waitFor(check: () => boolean, what: string, timeoutMs = 60_000, everyMs = 10): Promise<void> {
+  const until = Date.now() + timeoutMs;
+  while (!check()) {
+    if (Date.now() > until) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, everyMs));
+  }
 }

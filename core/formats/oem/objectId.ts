@@ -5,7 +5,7 @@
  * The Alpha-5 and TLE-designator decoding is the TLE reader's own (tle-fields.ts), so the
  * catalogue ids come out exactly as element sets store them.
  */
-import { decodeCatalogNumber, designatorToOmm } from '../tle-fields.js';
+import { decodeCatalogNumber, designatorToOmm } from '../tle/fields.js';
 
 export type OemObjectRef =
   /** Canonical decimal catalogue number, as ElementSet.objectId ("5", "100001" for "A0001"). */

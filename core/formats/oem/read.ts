@@ -7,7 +7,7 @@
  * - a bad data line or covariance block is rejected alone, and the segment still loads.
  */
 import type { ErrorCode, Rejection } from '../../errors.js';
-import { parseCcsdsTime, parseCdmInteger, parseCdmNumber } from '../cdm-values.js';
+import { parseCcsdsTime, parseCdmInteger, parseCdmNumber } from '../cdm/values.js';
 import {
   COVARIANCE_TERMS, HEADER_MANDATORY, HEADER_OPTIONAL, METADATA_KEYWORDS, METADATA_MANDATORY, METADATA_TIMES,
   OEM_VERSIONS, sameUnit, STATE_ELEMENTS, STATE_UNITS,

@@ -6,7 +6,7 @@
  */
 import { toIso, type Instant } from '../../time/instant.js';
 import { vec3, type Km, type KmPerS } from '../../units.js';
-import { formatCdmNumber } from '../cdm-values.js';
+import { formatCdmNumber } from '../cdm/values.js';
 import { lowerTriangleOf } from './covariance.js';
 import { stateFromTeme } from './frames.js';
 import { COVARIANCE_TERMS } from './keywords.js';

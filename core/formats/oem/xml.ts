@@ -6,7 +6,7 @@
  */
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import type { Rejection } from '../../errors.js';
-import { childrenOf, isElement, LineFinder, tagOf, textOf, type XNode } from '../cdm-xml.js';
+import { childrenOf, isElement, LineFinder, tagOf, textOf, type XNode } from '../cdm/xml.js';
 import { COVARIANCE_TERMS, STATE_ELEMENTS } from './keywords.js';
 import { emptySegment, type RawEntry, type RawOem, type RawSegment, type RawValue } from './raw.js';
 
