@@ -9,6 +9,7 @@ Usage:
                    [--start ISO8601] [--days N] [--threshold-km X | --volume-rtn-km R,T,N]
                    [--db FILE] [--json FILE|-]
   keepclear events [--db FILE] [--run ID] [--json FILE|-]
+  keepclear report (--event ID | --run ID) --out FILE.html|FILE.pdf [--db FILE]
   keepclear demo   [--out DIR]
   keepclear help
 

@@ -5,9 +5,9 @@ import { formatTleFile } from '../../core/formats/tle.js';
 import { formatOmmJson } from '../../core/formats/omm-write.js';
 import { buildDemoScenario } from '../../core/synthetic/demo.js';
 import { toIso } from '../../core/time/instant.js';
-import { openDatabase, eventsOfRun } from '../../db/index.js';
+import { openDatabase, eventsOfRun, putSetting } from '../../db/index.js';
 import { screenAndStore } from '../../app/screen.js';
-import { runReportHtml } from '../../app/report.js';
+import { renderRunReportHtml, runReportModelFromDb, SYNTHETIC_CATALOGUE_KEY } from '../../app/report/index.js';
 import { optNumber, optString, parseArgs } from '../args.js';
 import { eventTable, progressReporter } from '../output.js';
 import { importOneFile } from './import.js';
@@ -53,6 +53,9 @@ export async function demoCommand(argv: readonly string[]): Promise<number> {
       const c = outcome.counts;
       process.stderr.write(`demo: imported ${f}: ${c.imported} new, ${c.updated} updated, ${c.rejected} rejected\n`);
     }
+    putSetting(db, SYNTHETIC_CATALOGUE_KEY, {
+      text: `Synthetic catalogue: the ${scenario.catalog.length} objects screened are invented for the demo (operator ${scenario.operator.name}); none is a real object.`,
+    });
     const fleetIds = scenario.fleet.map((f) => f.objectId);
     const { run } = await screenAndStore(db, {
       settings: { start: scenario.start, end: scenario.end, volume: { kind: 'sphere', radiusKm: 5 }, primaries: fleetIds },
@@ -62,7 +65,7 @@ export async function demoCommand(argv: readonly string[]): Promise<number> {
     const events = eventsOfRun(db, run.id);
     const reportPath = join(dir, `report-${run.id}.html`);
     const title = `${scenario.operator.name} — conjunction screening, week of ${toIso(scenario.start).slice(0, 10)}`;
-    writeFileSync(reportPath, runReportHtml(run, events, title));
+    writeFileSync(reportPath, await renderRunReportHtml(runReportModelFromDb(db, run.id, { title })));
     const found = scenario.planted.filter((p) =>
       events.some((e) => e.primary === p.primary && e.secondary === p.secondary && Math.abs(e.tca - p.tca) < 1000),
     ).length;

@@ -1,6 +1,7 @@
 import { demoCommand } from './demo.js';
 import { eventsCommand } from './events.js';
 import { importCommand } from './import.js';
+import { reportCommand } from './report.js';
 import { screenCommand } from './screen.js';
 
 /** A CLI command: takes the arguments after its name, returns the exit code. */
@@ -11,5 +12,6 @@ export const COMMANDS: Record<string, Command> = {
   import: importCommand,
   screen: screenCommand,
   events: eventsCommand,
+  report: reportCommand,
   demo: demoCommand,
 };
