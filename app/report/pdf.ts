@@ -1,5 +1,5 @@
 import { existsSync } from 'node:fs';
-import { chromium, type Browser } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { KeepclearError } from '../../core/errors.js';
 
 /**
@@ -32,6 +32,8 @@ export function chromiumMissing(): string | null {
 export async function launchChromium(): Promise<Browser> {
   const missing = chromiumMissing();
   if (missing) throw new KeepclearError('NOT_FOUND', missing);
+  // Loaded on demand: playwright-core takes over a second to import, and only PDFs need it.
+  const { chromium } = await import('playwright-core');
   try {
     return await chromium.launch({ executablePath: chromiumPath(), args: CHROMIUM_ARGS });
   } catch (e) {

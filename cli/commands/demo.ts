@@ -7,7 +7,6 @@ import { buildDemoScenario } from '../../core/synthetic/demo.js';
 import { toIso } from '../../core/time/instant.js';
 import { openDatabase, eventsOfRun, putSetting } from '../../db/index.js';
 import { screenAndStore } from '../../app/screen.js';
-import { renderRunReportHtml, runReportModelFromDb, SYNTHETIC_CATALOGUE_KEY } from '../../app/report/index.js';
 import { optNumber, optString, parseArgs } from '../args.js';
 import { eventTable, progressReporter } from '../output.js';
 import { importOneFile } from './import.js';
@@ -53,6 +52,8 @@ export async function demoCommand(argv: readonly string[]): Promise<number> {
       const c = outcome.counts;
       process.stderr.write(`demo: imported ${f}: ${c.imported} new, ${c.updated} updated, ${c.rejected} rejected\n`);
     }
+    // Loaded on demand, so other commands do not pay for the plotting library at start-up.
+    const { renderRunReportHtml, runReportModelFromDb, SYNTHETIC_CATALOGUE_KEY } = await import('../../app/report/index.js');
     putSetting(db, SYNTHETIC_CATALOGUE_KEY, {
       text: `Synthetic catalogue: the ${scenario.catalog.length} objects screened are invented for the demo (operator ${scenario.operator.name}); none is a real object.`,
     });

@@ -1,6 +1,6 @@
 import { KeepclearError } from '../../core/errors.js';
 import { defaultDbPath, openDatabase } from '../../db/index.js';
-import { writeReport, type ReportTarget } from '../../app/report/index.js';
+import type { ReportTarget } from '../../app/report/index.js';
 import { optString, parseArgs } from '../args.js';
 
 /**
@@ -18,6 +18,8 @@ export async function reportCommand(argv: readonly string[]): Promise<number> {
   }
   if (out === undefined) throw new KeepclearError('BAD_ARGUMENT', 'give --out FILE.html or --out FILE.pdf');
   const target: ReportTarget = run !== undefined ? { run } : { event: event! };
+  // Loaded on demand, so other commands do not pay for the plotting library at start-up.
+  const { writeReport } = await import('../../app/report/index.js');
   const db = openDatabase(optString(args, 'db') ?? defaultDbPath());
   try {
     const r = await writeReport(db, target, out);
