@@ -197,6 +197,23 @@ describe('encounter plane to scale', () => {
     expect(top[0]).toBeLessThan(cx);
   });
 
+  it('a detail panel joins when miss and disk vanish next to km-sized ellipses; it is to scale too', async () => {
+    const svg = await planeSvg([[2000 ** 2, -0.3 * 2000 * 600], [-0.3 * 2000 * 600, 600 ** 2]], [150, 0], 10);
+    const detail = svg.querySelector('g.concat_1_group');
+    expect(detail, 'detail panel').not.toBeNull();
+    const s = scales(detail!);
+    expect(Math.abs(s.x - s.y)).toBeLessThan(1e-3);
+    const disk = extentPx(pathPoints(detail!.querySelector('g.hardbody_zoom_marks > path')!.getAttribute('d')!));
+    expect(Math.abs(disk.width - 20 * s.x)).toBeLessThan(PX);
+    expect(Math.abs(disk.height - 20 * s.y)).toBeLessThan(PX);
+    // readable there: the disk is at least 10 px across, where the main panel drew it under 6 px
+    expect(disk.width).toBeGreaterThan(10);
+    const main = svg.querySelector('g.concat_0_group')!;
+    expect(20 * scales(main).x).toBeLessThan(12);
+    // and no detail panel when the geometry reads on the main plot
+    expect((await planeSvg([[100 ** 2, 0], [0, 100 ** 2]])).querySelector('g.concat_1_group')).toBeNull();
+  });
+
   it('the hard-body disk is round with the combined radius; without covariance no contour is drawn and the subtitle says so', async () => {
     const svg = await planeSvg(null, [60, 0], 20);
     expect(all(svg, 'g.contours_marks')).toHaveLength(0);
