@@ -29,7 +29,7 @@ export const ZOOM_SIDE_PX = 250;
  * its place is marked and the miss reads on the main plot.)
  */
 const ZOOM_DISK_PX = 6;
-const ZOOM_MISS_PX = 15;
+const ZOOM_MISS_PX = 25;
 
 /** Labels of the contour lines (each polyline's description in the SVG: "1σ covariance contour"). */
 export const sigmaLabel = (k: number): string => `${k}σ covariance contour`;
