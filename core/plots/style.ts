@@ -17,7 +17,7 @@ export const GRID = '#E3E7EB';
 export const PLOT_FONT = '"Liberation Sans", Arial, "DejaVu Sans", Helvetica, sans-serif';
 
 /** Widths in CSS px: the reports scale SVG down to the page, so these only fix proportions. */
-export const WIDE_PX = 800;
+export const WIDE_PX = 860;
 export const PANEL_HEIGHT_PX = 170;
 
 export const PLOT_CONFIG: Config = {

@@ -11,6 +11,7 @@ const decadeBelow = (x: number): number => 10 ** Math.floor(Math.log10(x));
 const decadeAbove = (x: number): number => 10 ** Math.ceil(Math.log10(x));
 
 const GLANCE_HEIGHT_PX = 300;
+const LEGEND = { orient: 'top', direction: 'horizontal', symbolSize: 110, labelFontSize: 12, title: null } as const;
 
 /** Vega-Lite mark name of the event marks; tests and the renderer find the marks by it. */
 export const GLANCE_EVENT_MARKS = 'events';
@@ -98,8 +99,9 @@ export function weekGlanceSpec(input: GlanceInput): PlotSpec {
       encoding: {
         x,
         y,
-        color: { field: 'tier', type: 'nominal', title: 'tier', scale: { domain: scales.domain, range: scales.colours } },
-        shape: { field: 'tier', type: 'nominal', title: 'tier', scale: { domain: scales.domain, range: scales.shapes } },
+        // Legend above the plot, so the plot keeps the page's width.
+        color: { field: 'tier', type: 'nominal', title: 'tier', scale: { domain: scales.domain, range: scales.colours }, legend: LEGEND },
+        shape: { field: 'tier', type: 'nominal', title: 'tier', scale: { domain: scales.domain, range: scales.shapes }, legend: LEGEND },
         // Raw px² from the data: a size scale keyed by tier would merge into (and hide) the tier legend.
         size: { field: 'sizePx2', type: 'quantitative', scale: null },
         order: { field: 'rank', type: 'quantitative' },

@@ -44,6 +44,12 @@ export function tierCards(events: readonly EventRowModel[], pcPlan: number, pcMo
 const TABLE_HEAD = `<thead><tr><th>Event</th><th>Tier</th><th>TCA (UTC)</th><th>Primary</th><th>Secondary</th><th>Secondary name</th>
 <th class="num">Miss km</th><th class="num">v<sub>rel</sub> km/s</th><th class="num">R, T, N km</th><th class="num">Pc <span class="name">method</span></th><th>Covariance <span class="name">primary / secondary</span></th></tr></thead>`;
 
+/** TCA as date and time that may wrap between them, never inside either. */
+const tcaCell = (iso: string): string => {
+  const [date, time] = shortIso(iso).split(' ');
+  return `<span class="nw">${esc(date ?? '')}</span> <span class="nw">${esc(time ?? '')}</span>`;
+};
+
 /** "history(n=4) / default(LEO, age 5.5 d)" as two short lines, one per object. */
 const covarianceCell = (source: string | null): string => {
   if (source === null) return '—';
@@ -53,7 +59,7 @@ const covarianceCell = (source: string | null): string => {
 
 export function eventTable(events: readonly EventRowModel[], kind: string): string {
   const rows = events.map(
-    (e) => `<tr data-event="${esc(e.id)}"><td class="nw">${esc(e.id)}</td><td>${tierBadge(e.tier)}</td><td class="nw">${esc(shortIso(e.tca))}</td><td>${esc(e.primary)}</td><td>${esc(e.secondary)}</td><td class="name-col">${esc(e.secondaryName ?? '')}</td>
+    (e) => `<tr data-event="${esc(e.id)}"><td class="nw">${esc(e.id)}</td><td>${tierBadge(e.tier)}</td><td>${tcaCell(e.tca)}</td><td>${esc(e.primary)}</td><td>${esc(e.secondary)}</td><td class="name-col">${esc(e.secondaryName ?? '')}</td>
 <td class="num">${num(e.missKm, 3)}</td><td class="num">${num(e.relativeSpeedKmS, 3)}</td><td class="num">${e.rtnKm.map((x) => num(x, 3)).join(', ')}</td><td class="num">${esc(formatPc(e.pc))}<span class="name">${esc(e.pcMethod ?? '')}</span></td><td class="cov-col">${covarianceCell(e.covarianceSource)}</td></tr>`,
   );
   return `<table data-table="${esc(kind)}">${TABLE_HEAD}<tbody>${rows.join('\n')}</tbody></table>`;

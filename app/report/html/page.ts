@@ -39,7 +39,7 @@ dl.meta dt{color:var(--muted)}dl.meta dd{margin:0}
 .caution{border-left:5px solid #6B4E00;background:#FFF8E6;padding:9px 13px;margin:12px 0}
 .caution b{display:block;margin-bottom:2px}
 .cards{display:flex;flex-wrap:wrap;gap:10px;margin:12px 0}
-.card{flex:1 1 180px;border-radius:6px;padding:10px 14px;border:1px solid rgba(0,0,0,.15)}
+.card{flex:1 1 150px;border-radius:6px;padding:10px 14px;border:1px solid rgba(0,0,0,.15)}
 .card .n{font-size:28px;font-weight:bold;line-height:1.1}
 .card .glyph{font-size:20px;margin-right:6px}
 .card .what{font-size:12px}
@@ -67,5 +67,9 @@ ul.warnings{margin:4px 0 10px;padding-left:20px}
 .none{color:var(--muted);font-style:italic}
 .key{display:flex;flex-wrap:wrap;gap:18px;font-size:13px;color:var(--muted);margin:4px 0}
 @page{size:A4;margin:12mm 10mm}
-@media print{main,footer{max-width:none;padding-left:0;padding-right:0}h2{break-after:avoid}}
+@media print{
+main,footer{max-width:none;padding-left:0;padding-right:0}h2{break-after:avoid}
+table{font-size:9px}th,td{padding:2px 4px}td.num,th.num{white-space:normal}
+td.name-col,td.cov-col,.name{font-size:8.5px}.cov{white-space:normal}
+}
 `;
