@@ -222,8 +222,8 @@ function eventFacts(e: ConjunctionEvent, fromCdm: boolean, run: RunRecord | null
   facts.push(
     { label: 'Screening volume entry', value: e.entry === null ? 'at window edge' : toIso(e.entry), unit: 'UTC', source: screening },
     { label: 'Screening volume exit', value: e.exit === null ? 'at window edge' : toIso(e.exit), unit: 'UTC', source: screening },
-    { label: 'Primary element set epoch', value: toIso(e.primaryEpoch), unit: 'UTC', source: `age at TCA ${days(e.tca - e.primaryEpoch)} d` },
-    { label: 'Secondary element set epoch', value: toIso(e.secondaryEpoch), unit: 'UTC', source: `age at TCA ${days(e.tca - e.secondaryEpoch)} d` },
+    { label: `Primary ${fromCdm ? 'state' : 'element set'} epoch`, value: toIso(e.primaryEpoch), unit: 'UTC', source: `age at TCA ${days(e.tca - e.primaryEpoch)} d` },
+    { label: `Secondary ${fromCdm ? 'state' : 'element set'} epoch`, value: toIso(e.secondaryEpoch), unit: 'UTC', source: `age at TCA ${days(e.tca - e.secondaryEpoch)} d` },
   );
   if (r) {
     facts.push(
