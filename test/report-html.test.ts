@@ -19,6 +19,7 @@ import { encounterPlaneSpec } from '../core/plots/index.js';
 import { DECISION_AID_NOTE } from '../core/risk/assess.js';
 import { TIERS, type TierId } from '../core/risk/tiers.js';
 import { instantFromMs } from '../core/time/instant.js';
+import { storeCdm } from '../db/index.js';
 import { all, axesOf, extentPx, parseDoc, pathPoints, pxPerUnit, type Node } from './support/svgProbe.js';
 import { reportFixture, WEEK_START, type Fixture } from './support/reportFixture.js';
 
@@ -314,6 +315,25 @@ describe('event report', () => {
     expect(all(doc, 'table[data-table="plan-trade"] tbody tr')).toHaveLength(plan.trade.length);
     expect(all(doc, 'table[data-table="plan-new-approaches"] tbody tr')).toHaveLength(1);
     expect(doc.querySelector('[data-plan="verified"]')?.textContent).toContain('1.870 km');
+  });
+
+  it('lists the received messages linked to the event, with the originator\'s own Pc', async () => {
+    const id = idOf('20001');
+    storeCdm(fx.db, {
+      messageId: 'MSG-0001',
+      creationDate: instantFromMs(WEEK_START - 3_600_000),
+      originator: 'SCREENING PROVIDER X',
+      tca: instantFromMs(WEEK_START + 86_400_000),
+      missDistanceM: 118.5,
+      object1Id: '80002',
+      object2Id: '20001',
+      reportedPc: 4.2e-5,
+      parsed: {},
+      eventId: id,
+    });
+    const d = parseDoc(await renderEventReportHtml(eventReportModelFromDb(fx.db, id, { generatedAt: GENERATED }))).document;
+    const rows = all(d, 'table[data-table="messages"] tbody tr').map((tr) => all(tr, 'td').map((td) => td.textContent));
+    expect(rows).toEqual([['SCREENING PROVIDER X', 'MSG-0001', '2026-12-06 23:00:00Z', '2026-12-08 00:00:00Z', '118.5', '4.20e-5']]);
   });
 
   it('without series or plan those sections are absent', async () => {
