@@ -43,7 +43,9 @@ export default defineCommand<DemoOptions>({
     const { openDatabase, eventsOfRun } = await import('../../db/index.js');
     const { importFile } = await import('../../app/import/index.js');
     const { screenAndStore } = await import('../../app/screen.js');
-    const { runReportHtml } = await import('../../app/report.js');
+    const { putSetting } = await import('../../db/index.js');
+    // Loaded here only: the plotting library costs start-up time other commands should not pay.
+    const { renderRunReportHtml, runReportModelFromDb, SYNTHETIC_CATALOGUE_KEY } = await import('../../app/report/index.js');
     const { eventSummary } = await import('../present/events.js');
     const { progress } = await import('../present/progress.js');
 
@@ -72,6 +74,9 @@ export default defineCommand<DemoOptions>({
         const c = outcome.counts;
         process.stderr.write(`demo: imported ${f}: ${c.imported} new, ${c.updated} updated, ${c.rejected} rejected\n`);
       }
+      putSetting(db, SYNTHETIC_CATALOGUE_KEY, {
+        text: `Synthetic catalogue: the ${scenario.catalog.length} objects screened are invented for the demo (operator ${scenario.operator.name}); none is a real object.`,
+      });
       const fleetIds = scenario.fleet.map((f) => f.objectId);
       const { run } = await screenAndStore(db, {
         settings: { start: scenario.start, end: scenario.end, volume: { kind: 'sphere', radiusKm: DEMO_THRESHOLD_KM }, primaries: fleetIds },
@@ -83,7 +88,7 @@ export default defineCommand<DemoOptions>({
       const events = eventsOfRun(db, run.id);
       const reportPath = join(dir, `report-${run.id}.html`);
       const title = `${scenario.operator.name} — conjunction screening, week of ${toIso(scenario.start).slice(0, 10)}`;
-      writeFileSync(reportPath, runReportHtml(run, events, title));
+      writeFileSync(reportPath, await renderRunReportHtml(runReportModelFromDb(db, run.id, { title })));
       const found = scenario.planted.filter((p) =>
         events.some((e) => e.primary === p.primary && e.secondary === p.secondary && Math.abs(e.tca - p.tca) < 1000),
       ).length;

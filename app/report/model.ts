@@ -1,0 +1,142 @@
+/**
+ * View models of the reports: everything a report shows, as plain values (numbers with their
+ * unit in the name, ISO 8601 UTC strings), filled from the database by fromDb.ts or by any other
+ * caller (the desktop app, tests). Rendering (html/) reads only these.
+ */
+import type { EncounterPlaneInput, SeriesPoint } from '../../core/plots/inputs.js';
+import type { TierId } from '../../core/risk/tiers.js';
+
+export type { EncounterPlaneInput, SeriesPoint };
+
+/** One row of an event table. */
+export interface EventRowModel {
+  readonly id: string;
+  readonly tca: string;
+  readonly primary: string;
+  readonly primaryName: string | null;
+  readonly secondary: string;
+  readonly secondaryName: string | null;
+  readonly missKm: number;
+  readonly relativeSpeedKmS: number;
+  readonly rtnKm: readonly [number, number, number];
+  readonly pc: number | null;
+  readonly pcMethod: string | null;
+  readonly covarianceSource: string | null;
+  /** null: not assessed */
+  readonly tier: TierId | null;
+}
+
+export interface RunHeaderModel {
+  readonly id: string;
+  readonly windowStart: string;
+  readonly windowEnd: string;
+  /** e.g. "sphere, radius 5 km" */
+  readonly volumeText: string;
+  /** radius of a spherical volume (km), null for an RTN ellipsoid */
+  readonly screeningRadiusKm: number | null;
+  /** "all objects" or the primaries' ids */
+  readonly primariesText: string;
+  /** objects in the catalogue screened */
+  readonly catalogueSize: number;
+  readonly catalogueFingerprint: string;
+  readonly createdAt: string;
+  readonly status: string;
+  readonly wallMs: number | null;
+}
+
+export interface FlaggedModel {
+  readonly id: string;
+  readonly reason: string;
+}
+
+/** Set when the catalogue is invented (demo, tests): the report says so where it cannot be missed. */
+export interface CatalogueNote {
+  readonly synthetic: boolean;
+  readonly text: string;
+}
+
+export interface RunReportModel {
+  readonly kind: 'run';
+  readonly title: string;
+  readonly generatedAt: string;
+  readonly run: RunHeaderModel;
+  readonly catalogue: CatalogueNote | null;
+  /** every event of the run, by TCA */
+  readonly events: readonly EventRowModel[];
+  readonly flagged: readonly FlaggedModel[];
+  /** Pc thresholds of the tiers in force (for the legend text) */
+  readonly thresholds: { readonly pcPlan: number; readonly pcMonitor: number };
+  readonly caution: string;
+}
+
+/** One quantity of the event report: the value, its unit and where it came from. */
+export interface FactModel {
+  readonly label: string;
+  readonly value: string;
+  readonly unit: string;
+  readonly source: string;
+}
+
+/** A received conjunction data message about this event. */
+export interface MessageModel {
+  readonly originator: string;
+  readonly messageId: string;
+  readonly creationDate: string;
+  readonly tca: string;
+  readonly missDistanceM: number;
+  /** COLLISION_PROBABILITY as the originator reported it (Keepclear computes its own) */
+  readonly reportedPc: number | null;
+}
+
+export interface SeriesModel {
+  readonly id: string;
+  /** the series' state in our words (new, updated, no longer predicted, …) */
+  readonly state: string;
+  /** in the order the data was created */
+  readonly points: readonly SeriesPoint[];
+}
+
+/**
+ * A manoeuvre plan for the event (the plan feature lands later; DESIGN.md "JSON of plan"):
+ * the trade over lead times, the chosen burn, its verification and the new approaches it makes.
+ */
+export interface PlanModel {
+  readonly target: { readonly missKm?: number; readonly pc?: number };
+  readonly proposal: {
+    readonly burnTime: string;
+    readonly leadTimeS: number;
+    readonly direction: string;
+    readonly deltaVMs: number;
+    readonly deltaVRtnMs: readonly [number, number, number];
+    readonly achievedMissKm: number;
+    readonly achievedPc: number | null;
+    readonly propellantKg: number | null;
+  };
+  readonly trade: readonly { readonly leadTimeS: number; readonly deltaVMs: number; readonly achievedMissKm: number; readonly achievedPc?: number | null }[];
+  /** how the proposal was checked (e.g. "numerical propagation, two-body + J2..J4 + drag") */
+  readonly verification?: { readonly method: string; readonly missKm: number; readonly pc: number | null; readonly notes?: readonly string[] } | null;
+  readonly newApproaches: readonly { readonly secondary: string; readonly tca: string; readonly missKm: number; readonly pc?: number | null }[];
+}
+
+export interface EventReportModel {
+  readonly kind: 'event';
+  readonly title: string;
+  readonly generatedAt: string;
+  readonly event: EventRowModel;
+  /** null for an event made from a received message (no screening run behind it) */
+  readonly run: RunHeaderModel | null;
+  readonly catalogue: CatalogueNote | null;
+  /** every number with its unit and source */
+  readonly facts: readonly FactModel[];
+  readonly warnings: readonly string[];
+  /** null when no encounter plane is defined (co-moving objects); then planeNote says why */
+  readonly plane: EncounterPlaneInput | null;
+  readonly planeNote: string | null;
+  readonly messages: readonly MessageModel[];
+  readonly series?: SeriesModel | null;
+  readonly plan?: PlanModel | null;
+  readonly thresholds: { readonly pcPlan: number; readonly pcMonitor: number };
+  readonly caution: string;
+}
+
+export type ReportModel = RunReportModel | EventReportModel;
