@@ -16,6 +16,7 @@ const EXPECTED: Record<string, string[]> = {
   import: ['--db', '--hbr-m'],
   screen: ['--catalog', '--primary', '--all', '--start', '--days', '--threshold-km', '--volume-rtn-km', '--db', '--json', '--workers', '--all-events'],
   events: ['--db', '--run', '--json', '--all-events'],
+  report: ['--run', '--event', '--out', '--db'],
   demo: ['--out', '--size', '--workers', '--all-events'],
 };
 
