@@ -25,8 +25,13 @@ export type ErrorCode =
   | 'CDM_COVARIANCE'
   | 'CDM_STRUCTURE'
   | 'OEM_FIELD'
+  | 'OPM_FIELD'
+  | 'OPM_MISSING_KEYWORD'
+  | 'OPM_STRUCTURE'
   // propagation
   | 'PROPAGATION_FAILED'
+  // manoeuvre planning
+  | 'SPACECRAFT_PARAMETER_MISSING'
   // arguments and runs
   | 'BAD_ARGUMENT'
   | 'NOT_FOUND'
