@@ -46,4 +46,3 @@ export function applyBurn(state: ArrayLike<number>, dvRtnMs: Vec3): Float64Array
   return out;
 }
 
-export const burnMagnitudeMs = (b: ImpulsiveBurn): number => Math.hypot(...b.deltaVRtnMs);

@@ -15,7 +15,7 @@
  */
 import type { Instant } from '../time/instant.js';
 import type { FailureReason, Trajectory } from '../propagation/trajectory.js';
-import type { HermiteStateTable } from '../propagation/numerical/hermiteTable.js';
+import { STATE_TABLE_STRIDE, type HermiteStateTable } from '../propagation/numerical/hermiteTable.js';
 import type { ImpulsiveBurn } from './burn.js';
 
 export class ManoeuvredTrajectory implements Trajectory {
@@ -36,6 +36,30 @@ export class ManoeuvredTrajectory implements Trajectory {
     this.objectId = base.objectId;
     this.span = { start: base.span?.start ?? (-Infinity as Instant), end: difference.endMs as Instant };
   }
+
+  /**
+   * An upper bound (km) on |manoeuvred − base| position over the whole table. Between two
+   * nodes the difference f departs from the chord joining its node values by at most
+   * (h²/8)·max|f''| (linear interpolation error), and the chord's length never exceeds its
+   * longer end, so max|f| ≤ max over nodes |f| + (h²/8)·max|δa| (node accelerations, +10 % for
+   * their variation between nodes). Screening filters built for the base trajectory stay
+   * conservative for this one when their pad grows by this much.
+   */
+  get maxDisplacementKm(): number {
+    if (this.displacementBound === undefined) {
+      const d = this.difference.data;
+      let r = 0, a = 0;
+      for (let k = 0; k < this.difference.count; k++) {
+        const o = k * STATE_TABLE_STRIDE;
+        r = Math.max(r, Math.hypot(d[o]!, d[o + 1]!, d[o + 2]!));
+        a = Math.max(a, Math.hypot(d[o + 6]!, d[o + 7]!, d[o + 8]!));
+      }
+      const h = this.difference.stepS;
+      this.displacementBound = r + ((h * h) / 8) * a * 1.1;
+    }
+    return this.displacementBound;
+  }
+  private displacementBound: number | undefined;
 
   stateInto(t: Instant, out: Float64Array, offset: number): FailureReason | null {
     if (t < this.burn.time) return this.base.stateInto(t, out, offset);

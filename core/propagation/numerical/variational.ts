@@ -6,7 +6,6 @@
  * Step control acts on the six state components only: Φ's entries mix km, s and km/s, and the
  * state's steps (≈ 400 per revolution) already resolve the orbital frequency that Φ carries.
  */
-import type { Instant } from '../../time/instant.js';
 import { DormandPrince, type StepControl } from './dormandPrince.js';
 import { accelerationInto, type ForceModel } from './forceModel.js';
 import { gravityGradientInto } from './gravityGradient.js';
@@ -55,6 +54,3 @@ export function propagateWithStm(
   return { state: ode.y.slice(0, 6), stm: ode.y.slice(6) };
 }
 
-/** Convenience for callers working in instants. */
-export const propagateWithStmBetween = (model: ForceModel, state: ArrayLike<number>, from: Instant, to: Instant): StmResult =>
-  propagateWithStm(model, state, (to - from) / 1000);
