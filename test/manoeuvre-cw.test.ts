@@ -11,7 +11,7 @@
 import { describe, expect, it } from 'vitest';
 import { integrateBurnDifference } from '../core/manoeuvre/burnDifference.js';
 import { rtnRows } from '../core/manoeuvre/burn.js';
-import { cwImpulseResponse } from '../core/manoeuvre/clohessyWiltshire.js';
+import { cwImpulseResponse, cwOffsetRtnKm } from '../core/manoeuvre/clohessyWiltshire.js';
 import { burnSensitivity, linearOffset } from '../core/manoeuvre/linearMap.js';
 import { forceModel, TWO_BODY } from '../core/propagation/numerical/forceModel.js';
 import { NumericalTrajectory } from '../core/propagation/numerical/numericalTrajectory.js';
@@ -39,6 +39,12 @@ describe('Clohessy–Wiltshire module', () => {
       expect(Math.abs(s[1]! - yCw(t))).toBeLessThan(CW_FORM_TOL_KM);
       expect(s[2]).toBe(0);
     }
+  });
+  it('offset at TCA from a state: n from the state\'s semi-major axis', () => {
+    const v = Math.sqrt(MU / R_KM);
+    const off = cwOffsetRtnKm([R_KM, 0, 0, 0, v, 0], 0.3 * PERIOD_S, [0, DV_MS, 0], MU);
+    expect(off[0]).toBeCloseTo(xCw(0.3 * PERIOD_S), 12);
+    expect(off[1]).toBeCloseTo(yCw(0.3 * PERIOD_S), 12);
   });
   it('radial offset peaks half an orbit after the burn and vanishes after a whole one', () => {
     expect(cwImpulseResponse(N, PERIOD_S / 2, [0, DV_KMS, 0])[0]).toBeCloseTo((4 * DV_KMS) / N, 12);

@@ -10,6 +10,7 @@
  * (variational.ts), which has none of these limits; CW serves as the closed form that checks it
  * and as a hand estimate (test/manoeuvre-cw.test.ts).
  */
+import { orbitScale } from '../propagation/numerical/orbitScale.js';
 import type { Vec3 } from './burn.js';
 
 /**
@@ -33,4 +34,15 @@ export function cwTransition(n: number, t: number): number[] {
 export function cwImpulseResponse(n: number, t: number, dv: Vec3): number[] {
   const phi = cwTransition(n, t);
   return Array.from({ length: 6 }, (_, i) => phi[6 * i + 3]! * dv[0] + phi[6 * i + 4]! * dv[1] + phi[6 * i + 5]! * dv[2]);
+}
+
+/**
+ * CW estimate of a burn's offset at TCA, in the RTN frame of the unmanoeuvred orbit there (km):
+ * n from the two-body semi-major axis of the state at the burn. For near-circular orbits over a
+ * few revolutions; beside it the planner's integrated STM (linearMap.ts) holds for any orbit.
+ */
+export function cwOffsetRtnKm(stateAtBurn: ArrayLike<number>, durationS: number, dvRtnMs: Vec3, mu: number): Vec3 {
+  const n = (2 * Math.PI) / orbitScale(stateAtBurn, mu).periodS;
+  const s = cwImpulseResponse(n, durationS, [dvRtnMs[0] / 1000, dvRtnMs[1] / 1000, dvRtnMs[2] / 1000]);
+  return [s[0]!, s[1]!, s[2]!];
 }

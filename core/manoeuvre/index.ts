@@ -13,7 +13,7 @@ export type { Verification, VerifiedApproach } from './verifyProposal.js';
 export { VERIFICATION_METHOD } from './verifyProposal.js';
 export { ManoeuvredTrajectory } from './manoeuvredTrajectory.js';
 export { applyBurn, deltaVTemeKmS, rtnRows, type ImpulsiveBurn, type RtnAxis, type Vec3 } from './burn.js';
-export { cwTransition, cwImpulseResponse } from './clohessyWiltshire.js';
+export { cwTransition, cwImpulseResponse, cwOffsetRtnKm } from './clohessyWiltshire.js';
 export { propellantKg, checkPropulsion, type SpacecraftPropulsion } from './propellant.js';
 export { burnOpm, opmStateTeme, type BurnOpmInput } from './burnOpm.js';
 export { sampleTrajectory, type TemeSample } from './sampleTrajectory.js';

@@ -35,6 +35,12 @@ export const DEFAULT_MAX_DELTA_V_MS = 5;
 const DEFAULT_VERIFICATION_SPAN_MS = MS_PER_DAY;
 /** Beyond the search window the verification tables reach this far (s), for range-rate stencils. */
 const VERIFICATION_MARGIN_S = 120;
+/**
+ * The manoeuvred trajectory runs this far past verificationEnd: screening probes its sources up
+ * to an hour beyond the window end (core/screening/engine.ts, model margin) and its grids step
+ * past the end.
+ */
+const SCREENING_TAIL_MS = 2 * 3_600_000;
 
 export interface PlanInput {
   /** the event as screened (or imported): ids, TCA, epochs; its TCA centres the search */
@@ -58,7 +64,7 @@ export interface PlanInput {
   /** the operator's minimum lead time (s); shorter rows are listed but never proposed */
   readonly minLeadS?: number;
   readonly maxDeltaVMs?: number;
-  /** end of the returned manoeuvred trajectory (the screening window's end); default TCA + 1 day */
+  /** the screening window's end: the returned manoeuvred trajectory reaches 2 h beyond it; default TCA + 1 day */
   readonly verificationEnd?: Instant;
   /** the secondary's period (s), when shorter than the primary's (sets sampling steps) */
   readonly secondaryPeriodS?: number;
@@ -154,7 +160,10 @@ export function planAvoidance(input: PlanInput): PlanResult {
     notes.push('no row of the trade table meets the target within the constraints');
     return { ...base, status: 'no-proposal', trade, proposal: null, verification: null, manoeuvredTrajectory: null, notes, work: work() };
   }
-  const end = Math.max(input.verificationEnd ?? found.tca + DEFAULT_VERIFICATION_SPAN_MS, found.tca + (halfWindowS + VERIFICATION_MARGIN_S) * MS_PER_S) as Instant;
+  const end = Math.max(
+    (input.verificationEnd ?? found.tca + DEFAULT_VERIFICATION_SPAN_MS) + SCREENING_TAIL_MS,
+    found.tca + (halfWindowS + VERIFICATION_MARGIN_S) * MS_PER_S,
+  ) as Instant;
   const bc = burnCaseAt(ctx, chosen.burnTime);
   const verified = verifyProposal(ctx, bc, chosen.deltaVRtnMs, end);
   const proposal: Proposal = { ...chosen, propellantKg: propellantKg(chosen.deltaVMs!, input.spacecraft, event.primary) };

@@ -34,7 +34,8 @@ const FIRST_BRACKET_RATIO = 1.02;
 
 type Probe = BurnEvaluation & { readonly s: number };
 
-const along = (u: Vec3, s: number): Vec3 => [u[0] * s, u[1] * s, u[2] * s];
+/** s·u; "+ 0" turns −0 into 0 so reported components read cleanly. */
+const along = (u: Vec3, s: number): Vec3 => [u[0] * s + 0, u[1] * s + 0, u[2] * s + 0];
 
 /** d(margin)/ds of the linear map at s (per m/s), by a 0.1 % forward difference. */
 function linearSlope(ctx: PlanningContext, bc: BurnCase, u: Vec3, s: number): number {
