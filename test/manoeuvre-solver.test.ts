@@ -93,6 +93,12 @@ function independentMiss(s: Scenario, burnTime: Instant, dvRtnMs: readonly [numb
   return best;
 }
 
+function stateBefore(t: Trajectory, at: number): Float64Array {
+  const x = new Float64Array(6);
+  t.stateInto(at as Instant, x, 0);
+  return x;
+}
+
 const rowsOf = (r: PlanResult, direction: string) => r.trade.filter((x) => x.direction === direction);
 
 describe('crossing at 90°: miss target 2 km', () => {
@@ -258,6 +264,21 @@ describe('plan edges', () => {
     const r = plan(s, { directions: ['T'], leadTimesS: [0.5 * s.periodS, 3 * s.periodS], earliestBurn: (TCA - s.periodS * 1000) as Instant });
     expect(r.trade.map((x) => x.leadTimeS)).toEqual([0.5 * s.periodS]);
     expect(r.notes.join(' ')).toMatch(/1 lead times skipped/);
+  });
+  it('a secondary whose ephemeris stops inside the search window gives a typed error', () => {
+    const short = NumericalTrajectory.propagate('90001', (s.event.tca - 3_600_000) as Instant, stateBefore(s.secondary, s.event.tca - 3_600_000), (s.event.tca + 60_000) as Instant, forceModel());
+    let caught: unknown;
+    try {
+      plan({ ...s, secondary: short }, {});
+    } catch (e) {
+      caught = e;
+    }
+    expect(caught).toBeInstanceOf(KeepclearError);
+    expect((caught as KeepclearError).code).toBe('PROPAGATION_FAILED');
+    expect((caught as KeepclearError).message).toMatch(/outside-ephemeris/);
+  });
+  it('lead times must be positive', () => {
+    expect(() => plan(s, { leadTimesS: [600, -5] })).toThrow(/lead times/);
   });
   it('a burn bigger than allowed is reported as not reached, not as met', () => {
     const r = plan(s, { target: { kind: 'miss', missKm: 50 }, directions: ['T'], leadTimesS: [0.5 * s.periodS], maxDeltaVMs: 0.5 });

@@ -10,7 +10,8 @@
  * more away. A minimum on the window edge (distance still falling there) is flagged
  * (`atWindowEdge`): the window was too short to hold it.
  */
-import { findEncounters } from '../screening/refine.js';
+import { KeepclearError } from '../errors.js';
+import { findEncounters, PropagationError } from '../screening/refine.js';
 import type { Encounter } from '../screening/types.js';
 import type { Instant } from '../time/instant.js';
 import type { Trajectory } from '../propagation/trajectory.js';
@@ -44,7 +45,16 @@ export function closestApproachNear(pair: PairSpec, centre: Instant, halfWindowS
     minPeriodMin: pair.minPeriodS / 60,
   };
   const step = Math.min(MAX_SAMPLE_STEP_MS, (pair.minPeriodS * 1000) / 16);
-  const found = findEncounters(ctx, start, end, step);
+  let found: Encounter[];
+  try {
+    found = findEncounters(ctx, start, end, step);
+  } catch (e) {
+    if (!(e instanceof PropagationError)) throw e;
+    throw new KeepclearError(
+      'PROPAGATION_FAILED',
+      `${e.objectId} has no state at ${new Date(e.at).toISOString()} (${e.reason}) while looking for its closest approach near ${new Date(centre).toISOString()}`,
+    );
+  }
   let best: Encounter | null = null;
   for (const e of found) if (!best || e.missKm < best.missKm) best = e;
   return best;

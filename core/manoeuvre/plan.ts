@@ -131,9 +131,13 @@ export function planAvoidance(input: PlanInput): PlanResult {
     maxDeltaVMs: input.maxDeltaVMs ?? DEFAULT_MAX_DELTA_V_MS,
     counters,
   };
+  if (ctx.pcOf) counters.pcCalls++;
   const originalPc = ctx.pcOf ? ctx.pcOf(found) : null;
   const original = { ...outcomeOf(target, found, originalPc), dvRtnMs: [0, 0, 0] as Vec3 };
-  const notes: string[] = [];
+  const notes: string[] = [
+    `the new closest approach is searched within TCA ± ${halfWindowS.toFixed(0)} s (a quarter orbit); approaches ` +
+      'of the same pair an orbit away, and with other objects, are for the re-screen of the manoeuvred trajectory',
+  ];
   const base = {
     caution: DECISION_AID_NOTE,
     target,
@@ -148,6 +152,8 @@ export function planAvoidance(input: PlanInput): PlanResult {
   }
 
   let leads = [...(input.leadTimesS ?? defaultLeadTimesS(periodS))].sort((a, b) => a - b);
+  const bad = leads.find((l) => !(l > 0 && Number.isFinite(l)));
+  if (bad !== undefined) throw new KeepclearError('BAD_ARGUMENT', `lead times must be positive numbers of seconds, got ${bad}`);
   if (input.earliestBurn !== undefined) {
     const kept = leads.filter((l) => found.tca - l * MS_PER_S >= input.earliestBurn!);
     if (kept.length < leads.length) notes.push(`${leads.length - kept.length} lead times skipped: their burn would come before the earliest burn time`);
@@ -167,6 +173,9 @@ export function planAvoidance(input: PlanInput): PlanResult {
   const bc = burnCaseAt(ctx, chosen.burnTime);
   const verified = verifyProposal(ctx, bc, chosen.deltaVRtnMs, end);
   const proposal: Proposal = { ...chosen, propellantKg: propellantKg(chosen.deltaVMs!, input.spacecraft, event.primary) };
+  const final = verified.verification.sgp4PlusDifference;
+  if (!final || outcomeOf(target, { ...found, missKm: final.missKm, atWindowEdge: final.atWindowEdge }, final.pc).margin < 0)
+    notes.push('the final verification (tighter integration over the whole window) does not meet the target: do not use this proposal as it stands');
   return {
     ...base,
     status: 'planned',
