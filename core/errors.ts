@@ -38,8 +38,13 @@ export type ErrorCode =
   | 'DATABASE_FULL'
   | 'DATABASE_IO'
   | 'DATABASE_DAMAGED'
+  | 'OPM_FIELD'
+  | 'OPM_MISSING_KEYWORD'
+  | 'OPM_STRUCTURE'
   // propagation
   | 'PROPAGATION_FAILED'
+  // manoeuvre planning
+  | 'SPACECRAFT_PARAMETER_MISSING'
   // arguments and runs
   | 'BAD_ARGUMENT'
   | 'NOT_FOUND'
