@@ -13,6 +13,7 @@ import type { WindowSettings } from './engine.js';
 import type { FlaggedObject, ScreeningSettings } from './types.js';
 import type { Encounter } from '../events/index.js';
 import type { ScreeningWorkerApi } from './worker.js';
+import { runAllVsAll } from './spatial/runAllVsAll.js';
 
 export interface RunOptions {
   /** worker threads; 0 runs in this thread. Default: one per core. */
@@ -46,6 +47,7 @@ export async function runScreening(
   }
   const ids = new Set(elementSets.map((e) => e.objectId));
   const all = settings.primaries === 'all';
+  if (settings.shard && !all) throw new KeepclearError('BAD_ARGUMENT', 'a shard (--shard K/N) needs an all-vs-all run (--all)');
   const primaries = all ? [] : [...new Set(settings.primaries as readonly string[])];
   for (const p of primaries) {
     if (!ids.has(p)) throw new KeepclearError('NOT_FOUND', `primary ${p} has no element set in the catalogue`);
@@ -80,7 +82,10 @@ export async function runScreening(
     : null;
   try {
     let results: ChunkResult[];
-    if (nWorkers <= 0) {
+    if (all) {
+      // All-vs-all goes through the spatial index (spatial/runAllVsAll.ts).
+      results = await runAllVsAll(elementSets, win, control, nWorkers, settings.shard);
+    } else if (nWorkers <= 0) {
       const chunk = new ScreeningChunk(elementSets, win, control);
       if (all) results = [chunk.screenAllPairs(0, 1)];
       else {
