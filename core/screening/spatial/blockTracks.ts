@@ -10,7 +10,7 @@
  *    of its interval, where it equals the sampled velocity.
  */
 import type { Instant } from '../../time/instant.js';
-import type { Sgp4Trajectory } from '../../propagation/sgp4.js';
+import type { Trajectory } from '../../propagation/trajectory.js';
 import { interpolationBoundKm, type SamplingPlan } from './sampling.js';
 
 export class BlockTracks {
@@ -28,7 +28,7 @@ export class BlockTracks {
   constructor(
     readonly t0: number,
     readonly t1: number,
-    trajectories: readonly Sgp4Trajectory[],
+    trajectories: readonly Trajectory[],
     plans: readonly SamplingPlan[],
     /** objects taking part (indices into trajectories) */
     readonly members: Int32Array,

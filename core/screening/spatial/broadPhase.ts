@@ -60,13 +60,8 @@ export function broadPhase(
   for (const i of tracks.members) if (tracks.ok[i]) members.push(i);
   const n = tracks.ok.length;
   const half = s.stepMs / 2000; // Δ/2 in seconds
-  const q = new Float64Array(n);
-  let rMax = 0;
-  for (const i of members) {
-    q[i] = tracks.epsKm[i]! + (tracks.accelKmS2[i]! * half * half) / 2;
-    rMax = Math.max(rMax, tracks.speedKmS[i]! * half + q[i]!);
-  }
-  const cellKm = s.dKm + 2 * rMax;
+  const q = stepPads(tracks, members, s.stepMs);
+  const cellKm = indexCellKm(tracks, members, s);
   const st = new Float64Array(n * 6);
   const R = new Float64Array(n);
   const D = s.dKm;
@@ -129,4 +124,21 @@ export function broadPhase(
   }
   stats.pairTests += tests;
   return true;
+}
+
+/** q_i = E_i + A_i·Δ²/8 (km) of each member: how far it can leave its linear motion in a step. */
+export function stepPads(tracks: BlockTracks, members: readonly number[], stepMs: number): Float64Array {
+  const half = stepMs / 2000;
+  const q = new Float64Array(tracks.ok.length);
+  for (const i of members) q[i] = tracks.epsKm[i]! + (tracks.accelKmS2[i]! * half * half) / 2;
+  return q;
+}
+
+/** Cell side C = D + 2·max R_i with R_i ≤ V_i·Δ/2 + q_i (km): see the header. */
+export function indexCellKm(tracks: BlockTracks, members: readonly number[], s: IndexStepSettings): number {
+  const half = s.stepMs / 2000;
+  const q = stepPads(tracks, members, s.stepMs);
+  let rMax = 0;
+  for (const i of members) rMax = Math.max(rMax, tracks.speedKmS[i]! * half + q[i]!);
+  return s.dKm + 2 * rMax;
 }

@@ -8,7 +8,6 @@
  * Objects whose propagation fails at the window start are flagged and left out.
  */
 import type { ElementSet } from '../../elements/elementSet.js';
-import type { Sgp4Trajectory } from '../../propagation/sgp4.js';
 import type { Encounter } from '../../events/index.js';
 import { objectFromElements, ScreeningSession, expandAndMerge, type ScreeningObject, type WindowSettings } from '../engine.js';
 import { findEncounters, PropagationError } from '../refine.js';
@@ -79,7 +78,7 @@ export class AllVsAllChunk {
   broad(blocks: readonly number[], progressUnits: readonly number[]): BroadResult {
     const { steps } = stepPlan(this.settings);
     const members = Int32Array.from(this.objects.flatMap((_, i) => (this.role[i] === 0 ? [i] : [])));
-    const trajectories = this.objects.map((o) => o.trajectory as Sgp4Trajectory);
+    const trajectories = this.objects.map((o) => o.trajectory);
     const grid = new CellGrid(this.objects.length);
     const out = new CandidateList();
     const stats = { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0, sgp4Evaluations: 0 };
