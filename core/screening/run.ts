@@ -3,9 +3,7 @@ import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { availableParallelism } from 'node:os';
 import type { ElementSet } from '../elements/elementSet.js';
 import { KeepclearError } from '../errors.js';
-import { Worker } from 'node:worker_threads';
-import { spawnTsWorker } from '../workers/spawn.js';
-import { bundledWorker } from '../workers/bundle.js';
+import { startWorkers } from '../workers/entry.js';
 import { packSets } from './packedSets.js';
 import { CTRL_CANCEL, CTRL_DONE, ScreeningChunk, type ChunkResult, type GridLayout, type SampledPrimary } from './chunk.js';
 import { gridPointCount, gridStepMs } from './primaryGrid.js';
@@ -151,9 +149,7 @@ async function inWorkers(
   layout: { id: string; offset: number; count: number; stepMs: number }[],
   gridBuffer: SharedArrayBuffer,
 ): Promise<ChunkResult[]> {
-  const entry = new URL('./worker.ts', import.meta.url);
-  const script = await bundledWorker(entry);
-  const workers = Array.from({ length: n }, () => (script ? new Worker(script) : spawnTsWorker(entry)));
+  const workers = await startWorkers('./worker.ts', import.meta.url, n);
   const apis: Remote<ScreeningWorkerApi>[] = workers.map((w) => wrap<ScreeningWorkerApi>(nodeEndpoint(w)));
   try {
     const packed = packSets(elementSets);
