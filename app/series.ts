@@ -258,7 +258,7 @@ export function changesOfRun(db: KeepclearDb, runId: string): RunChanges | null 
   if (run.kind === 'screening' || run.kind === 'merge') {
     const coverage: ScreeningCoverage = {
       id: run.id, createdAt: run.dataAt, start: run.settings.start, end: run.settings.end,
-      primaries: run.settings.primaries, flagged: run.flagged.map((f) => f.id),
+      primaries: run.settings.primaries, flagged: run.flagged.map((f) => f.id), volume: run.settings.volume,
     };
     // Candidates: series of the run's primaries whose newest TCA lies in (or near) its window.
     const pad = 86_400_000;

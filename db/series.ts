@@ -5,6 +5,7 @@
  */
 import type { ScreeningCoverage, SeriesMember, SeriesSourceKind, SeriesState } from '../core/events/index.js';
 import type { ConjunctionEvent } from '../core/events/index.js';
+import type { ScreeningVolume } from '../core/screening/types.js';
 import { instantFromMs, type Instant } from '../core/time/instant.js';
 import type { KeepclearDb } from './connection.js';
 import { eventFromRow, type EventRow } from './events.js';
@@ -186,10 +187,10 @@ export function seriesIdsOfEvents(db: KeepclearDb, eventIds: readonly string[]):
 export function screeningCoverage(db: KeepclearDb): ScreeningCoverage[] {
   const rows = db
     .stmt(
-      `SELECT id, COALESCE(data_at, created_at) AS data_at, start_ms, end_ms, primaries_json FROM runs
+      `SELECT id, COALESCE(data_at, created_at) AS data_at, start_ms, end_ms, primaries_json, volume_json FROM runs
         WHERE kind IN ('screening', 'merge') AND status = 'done'`,
     )
-    .all() as { id: string; data_at: number; start_ms: number; end_ms: number; primaries_json: string }[];
+    .all() as { id: string; data_at: number; start_ms: number; end_ms: number; primaries_json: string; volume_json: string }[];
   const flagged = db.stmt('SELECT object_id FROM run_flagged WHERE run_id = ?').pluck();
   return rows.map((r) => ({
     id: r.id,
@@ -198,6 +199,7 @@ export function screeningCoverage(db: KeepclearDb): ScreeningCoverage[] {
     end: instantFromMs(r.end_ms),
     primaries: JSON.parse(r.primaries_json) as string[] | 'all',
     flagged: flagged.all(r.id) as string[],
+    volume: JSON.parse(r.volume_json) as ScreeningVolume,
   }));
 }
 
