@@ -37,6 +37,7 @@ export {
   listRuns,
   latestRun,
   markInterruptedRuns,
+  setRunDataAt,
   type RunKind,
   type RunStatus,
   type RunRecord,
@@ -62,3 +63,23 @@ export {
   type CdmFilter,
 } from './cdm.js';
 export { getSetting, putSetting, deleteSetting } from './settings.js';
+export { SERIES_STATES } from './schemaV4.js';
+export {
+  LINKED_RUN_KINDS,
+  sightingsOfPair,
+  sightingsOfRun,
+  unlinkedPairs,
+  setEventSeries,
+  putSeries,
+  deleteSeries,
+  getSeries,
+  listSeries,
+  eventsOfSeries,
+  seriesIdsOfEvents,
+  screeningCoverage,
+  newestDataAt,
+  seriesEventsOf,
+  type StoredSeries,
+  type SeriesFilter,
+  type SeriesEvent,
+} from './series.js';
