@@ -17,6 +17,7 @@ const EXPECTED: Record<string, string[]> = {
   screen: ['--catalog', '--primary', '--all', '--start', '--days', '--threshold-km', '--volume-rtn-km', '--db', '--json', '--workers', '--all-events'],
   events: ['--db', '--run', '--json', '--all-events'],
   report: ['--run', '--event', '--out', '--db'],
+  export: ['--event', '--run', '--format', '--out', '--db'],
   demo: ['--out', '--size', '--workers', '--all-events'],
 };
 
