@@ -242,3 +242,31 @@ describe('exportEvents', () => {
     expect(() => exportEvents(db, { event: 'R1-99' }, 'json', join(dir, 'x.json'))).toThrow(/no event "R1-99"/);
   });
 });
+
+describe('an event made from a received CDM', () => {
+  it('is exported with that message\'s full 6×6 covariance (velocity terms too), and reads back the same', () => {
+    const fixture = 'test/fixtures/cdm/valid-6x6.kvn';
+    const first = openDatabase(':memory:');
+    const second = openDatabase(':memory:');
+    try {
+      expect(importFile(first, fixture).ok).toBe(true);
+      const received = parseCdmFile(readFileSync(fixture), fixture).cdm!;
+      const [e] = eventsOfRun(first, listRuns(first, 10, ['cdm'])[0]!.id);
+      const file = join(dir, 'from-received.cdm');
+      writeFileSync(file, cdmTextOfEvent(first, e!, { now: NOW }));
+      const exported = parseCdmFile(readFileSync(file), file).cdm!;
+      // The received message's covariance terms, written exactly (shortest round-trip text).
+      expect(exported.object1.covariance.matrix).toEqual(received.object1.covariance.usable);
+      expect(exported.object2.covariance.matrix).toEqual(received.object2.covariance.usable);
+      expect(exported.object1.covariance.comments.join(' ')).not.toMatch(/only a position covariance/);
+      expect(exported.object1.additional.areaPc).toBeCloseTo(received.object1.additional.areaPc!, 12);
+      expect(importFile(second, file).ok).toBe(true);
+      const [b] = eventsOfRun(second, listRuns(second, 10, ['cdm'])[0]!.id);
+      expect(Math.abs(b!.risk!.pc! - e!.risk!.pc!) / e!.risk!.pc!).toBeLessThan(1e-9);
+      expect(Math.abs(b!.missKm - e!.missKm)).toBeLessThan(1e-6);
+    } finally {
+      first.close();
+      second.close();
+    }
+  });
+});
