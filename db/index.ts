@@ -62,3 +62,16 @@ export {
   type CdmFilter,
 } from './cdm.js';
 export { getSetting, putSetting, deleteSetting } from './settings.js';
+export { getSpacecraft, setSpacecraft, listSpacecraft, type StoredSpacecraft } from './spacecraft.js';
+export {
+  storePlan,
+  getPlan,
+  latestPlanOfEvent,
+  plansOfEvent,
+  latestPlanSummaries,
+  type NewPlan,
+  type PlanStatus,
+  type PlanSummary,
+  type PlanTargetRecord,
+  type StoredPlan,
+} from './plans.js';
