@@ -18,6 +18,8 @@ const EXPECTED: Record<string, string[]> = {
   events: ['--db', '--run', '--json', '--all-events'],
   report: ['--run', '--event', '--out', '--db'],
   demo: ['--out', '--size', '--workers', '--all-events'],
+  plan: ['--event', '--target-miss-km', '--target-pc', '--db', '--json', '--oem', '--opm'],
+  spacecraft: ['--id', '--mass-kg', '--isp-s', '--db', '--json'],
 };
 
 let dir: string;
