@@ -14,3 +14,4 @@ export type { RescreenApproach } from './approaches.js';
 export { planInputs, spacecraftCommand, type PlanInputs } from './inputs.js';
 export { rescreenTrajectory, radiusBandOfGrid, type RescreenInput, type RescreenOutcome } from './rescreen.js';
 export { planOemText, planOpmText, OEM_STEP_S } from './files.js';
+export { planSummaryToJson, planCell } from './summary.js';

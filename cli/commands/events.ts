@@ -25,7 +25,8 @@ export default defineCommand<EventsOptions>({
   ],
   examples: ['keepclear events', 'keepclear events --run R12 --json -'],
   async run(_args, o) {
-    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns } = await import('../../db/index.js');
+    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns, latestPlanSummaries } = await import('../../db/index.js');
+    const { planCell, planSummaryToJson } = await import('../../app/plan/summary.js');
     const { eventToJson, runToJson } = await import('../../app/eventJson.js');
     const { eventSummary } = await import('../present/events.js');
     const { writeJsonWithCaution } = await import('../present/json.js');
@@ -42,16 +43,23 @@ export default defineCommand<EventsOptions>({
         const fromCdm = listRuns(db, 10_000, ['cdm']).filter((r) => r.status === 'done').flatMap((r) => eventsOfRun(db, r.id));
         events = [...(run ? eventsOfRun(db, run.id) : []), ...fromCdm].sort((a, b) => a.tca - b.tca);
       }
+      const plans = latestPlanSummaries(db, events.map((e) => e.id));
       if (o.json !== undefined) {
         writeJsonWithCaution(o.json, {
           run: run ? runToJson(run) : null,
           // Extras (e.g. a message's reported Pc, kept apart from Keepclear's own) ride along.
-          events: events.map((e) => ({ ...eventToJson(e), extra: getEventExtra(db, e.id) ?? {} })),
+          // plan: the event's newest manoeuvre plan (keepclear plan), null when none.
+          events: events.map((e) => {
+            const p = plans.get(e.id);
+            return { ...eventToJson(e), extra: getEventExtra(db, e.id) ?? {}, plan: p ? planSummaryToJson(p) : null };
+          }),
         });
       }
       if (o.json !== '-') {
         if (run) process.stdout.write(`run ${run.id} (${run.kind}, ${run.status}): ${run.eventCount ?? 0} event(s)\n`);
-        process.stdout.write(eventSummary(events, o.allEvents === true));
+        const cells = new Map([...plans].map(([id, p]) => [id, planCell(p)]));
+        process.stdout.write(eventSummary(events, o.allEvents === true, cells));
+        if (plans.size > 0) process.stdout.write(`${plans.size} event(s) with a manoeuvre plan; keepclear report --event ID shows it.\n`);
       }
       return 0;
     } finally {

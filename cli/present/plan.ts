@@ -6,7 +6,11 @@
 import type { EventPlan } from '../../app/plan/index.js';
 import { cheapestPerLeadTime } from '../../app/plan/index.js';
 import { formatPc } from '../../core/events/pcText.js';
+import { TIER_ORDER, TIERS } from '../../core/risk/tiers.js';
 import { toIso } from '../../core/time/instant.js';
+
+const LOWEST_TIER: string = TIER_ORDER[TIER_ORDER.length - 1]!;
+const labelOf = (tier: string | null): string => (tier ? ((TIERS as Record<string, { label: string } | undefined>)[tier]?.label ?? tier) : '—');
 
 const DIRECTION_WORDS: Record<string, string> = { R: 'radial', T: 'in-track', N: 'cross-track', best: 'best direction' };
 
@@ -86,15 +90,21 @@ export function planText(p: EventPlan): string {
         `${r.approaches.length} approach(es), ${p.newApproaches.length} new` +
         (r.comparedWithRun ? ` (compared with run ${r.comparedWithRun})` : ''),
     );
-    if (p.newApproaches.length > 0) {
+    // As for events: what needs attention first (above the lowest tier, highest Pc first); the
+    // rest are counted, and --json lists every one.
+    const attention = p.newApproaches.filter((a) => a.tier !== LOWEST_TIER).sort((a, b) => (b.pc ?? 0) - (a.pc ?? 0) || a.missKm - b.missKm);
+    if (attention.length > 0) {
       out.push(
+        `New approaches needing attention (${attention.length}), highest Pc first:`,
         table(
           ['secondary', 'TCA (UTC)', 'miss km', 'v_rel km/s', 'Pc', 'tier'],
-          p.newApproaches.map((a) => [a.secondary, toIso(a.tca), a.missKm.toFixed(3), a.relativeSpeedKmS.toFixed(3), formatPc(a.pc), a.tier ?? '—']),
+          attention.map((a) => [a.secondary, toIso(a.tca), a.missKm.toFixed(3), a.relativeSpeedKmS.toFixed(3), formatPc(a.pc), labelOf(a.tier)]),
           [2, 3],
         ),
       );
     }
+    const routine = p.newApproaches.length - attention.length;
+    if (routine > 0) out.push(`${routine} new ${labelOf(LOWEST_TIER)} approach(es) not listed: --json FILE lists every approach of the re-screen.`);
     const closer = r.approaches.filter((a) => a.before && a.missKm < a.before.missKm - 1e-3 && a.secondary !== p.event.secondary);
     if (closer.length > 0)
       out.push(`Known approaches that come closer after the burn: ${closer.map((a) => `${a.secondary} ${a.before!.missKm.toFixed(3)} → ${a.missKm.toFixed(3)} km`).join('; ')}`);
