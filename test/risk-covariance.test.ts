@@ -72,8 +72,24 @@ describe('CDM covariance (CCSDS 508.0-B-1 lower triangle, RTN) → inertial', ()
 });
 
 describe('default covariance table', () => {
-  it('is labelled with its provenance', () => {
-    expect(DEFAULT_COVARIANCE_PROVENANCE).toMatch(/common practice \/ from memory/);
+  it('is labelled with its provenance, value by value', () => {
+    expect(DEFAULT_COVARIANCE_PROVENANCE).toMatch(/Levit & Marshall 2011.*Riesing 2015.*from memory/);
+    for (const r of ['MEO', 'GEO', 'HEO'] as const) expect(DEFAULT_COVARIANCE_TABLE[r].provenance).toMatch(/^from memory/);
+  });
+  it('LEO-low along-track σ against Riesing 2015 (SSC15-VIII-5, abstract; test/authorities/tle-accuracy)', () => {
+    // "1-σ in-track propagation error after one day ranges from 10-30 km ..., two-day 20-70 km"
+    const one = defaultCovariance('LEO-low', 1).sigmaM[1], two = defaultCovariance('LEO-low', 2).sigmaM[1];
+    expect(one).toBeGreaterThanOrEqual(10_000);
+    expect(one).toBeLessThanOrEqual(30_000);
+    expect(two).toBeGreaterThanOrEqual(20_000);
+    expect(two).toBeLessThanOrEqual(70_000);
+  });
+  it('LEO along-track growth against Levit & Marshall 2011 (Adv. Space Res. 47, abstract)', () => {
+    // "range error ... increases at a typical rate of 100 meters per day, approximately a 10-fold
+    // improvement over individual TLE's propagated with ... SGP4": a single TLE ≈ 1 km/day.
+    const growth = defaultCovariance('LEO', 11).sigmaM[1] - defaultCovariance('LEO', 10).sigmaM[1];
+    expect(growth / (10 * 100)).toBeGreaterThan(0.9);
+    expect(growth / (10 * 100)).toBeLessThan(1.1);
   });
   it('regimes by mean motion and eccentricity', () => {
     expect(regimeOf({ meanMotion: 15.5, eccentricity: 0.0005 })).toBe('LEO-low'); // ~420 km
