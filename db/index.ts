@@ -62,3 +62,4 @@ export {
   type CdmFilter,
 } from './cdm.js';
 export { getSetting, putSetting, deleteSetting } from './settings.js';
+export { newestElementEpochMs } from './catalogSummary.js';

@@ -18,6 +18,7 @@ const EXPECTED: Record<string, string[]> = {
   events: ['--db', '--run', '--json', '--all-events'],
   report: ['--run', '--event', '--out', '--db'],
   demo: ['--out', '--size', '--workers', '--all-events'],
+  serve: ['--db', '--port'],
 };
 
 let dir: string;

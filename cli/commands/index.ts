@@ -10,6 +10,7 @@ import events from './events.js';
 import importCommand from './import.js';
 import report from './report.js';
 import screen from './screen.js';
+import serve from './serve.js';
 
 // Each spec is typed by its own options; the registry only needs to hand them to commander.
-export const COMMANDS: readonly CommandSpec<never>[] = [importCommand, screen, events, report, demo];
+export const COMMANDS: readonly CommandSpec<never>[] = [importCommand, screen, events, report, demo, serve];
