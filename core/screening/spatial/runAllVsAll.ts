@@ -7,10 +7,8 @@
  */
 import { wrap, releaseProxy, type Remote } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
-import { Worker } from 'node:worker_threads';
 import type { ElementSet } from '../../elements/elementSet.js';
-import { spawnTsWorker } from '../../workers/spawn.js';
-import { bundledWorker } from '../../workers/bundle.js';
+import { startWorkers } from '../../workers/entry.js';
 import { packSets } from '../packedSets.js';
 import type { ChunkResult } from '../chunk.js';
 import type { WindowSettings } from '../engine.js';
@@ -41,9 +39,7 @@ export async function runAllVsAll(
     const c = new AllVsAllChunk(elementSets, win, control, shard);
     return await drive([c], c, elementSets.length, win);
   }
-  const entry = new URL('./worker.ts', import.meta.url);
-  const script = await bundledWorker(entry);
-  const workers = Array.from({ length: nWorkers }, () => (script ? new Worker(script) : spawnTsWorker(entry)));
+  const workers = await startWorkers('./worker.ts', import.meta.url, nWorkers);
   const apis: Remote<AllVsAllWorkerApi>[] = workers.map((w) => wrap<AllVsAllWorkerApi>(nodeEndpoint(w)));
   try {
     const packed = packSets(elementSets);
