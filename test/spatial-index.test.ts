@@ -14,7 +14,7 @@ import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import { StraightLineTrajectory } from '../core/propagation/straightLine.js';
 import { BlockTracks } from '../core/screening/spatial/blockTracks.js';
 import { broadPhase, indexCellKm, stepPads } from '../core/screening/spatial/broadPhase.js';
-import { CellGrid } from '../core/screening/spatial/cellGrid.js';
+import { SortedCells } from '../core/screening/spatial/sortedCells.js';
 import { CandidateList } from '../core/screening/spatial/candidates.js';
 import { samplingPlan } from '../core/screening/spatial/sampling.js';
 import { Rng } from '../core/synthetic/random.js';
@@ -115,7 +115,7 @@ describe('pairs that meet only at the edge of a cell or a time step are candidat
       const cK = indexCellKm(tracks, [0, 1], { start: START, stepMs: STEP_MS, dKm: D });
       const out = new CandidateList();
       const stats = { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0 };
-      broadPhase(tracks, new CellGrid(2), { start: START, stepMs: STEP_MS, dKm: D }, 0, steps, () => true, out, stats, () => false);
+      broadPhase(tracks, new SortedCells(2), { start: START, stepMs: STEP_MS, dKm: D }, 0, steps, () => true, out, stats, () => false);
       const found = [...out.take().k];
       // The step holding the TCA must be a candidate (both steps when the TCA is on their edge).
       const kT = Math.floor((tca - START) / STEP_MS);
@@ -134,7 +134,7 @@ describe('pairs that meet only at the edge of a cell or a time step are candidat
     const far = new StraightLineTrajectory('F', START as Instant, [b!.r0[0], b!.r0[1], b!.r0[2] + 20], b!.v);
     const tracks = new BlockTracks(START, end, [a!, far], [plan, plan], Int32Array.from([0, 1]));
     const out = new CandidateList();
-    broadPhase(tracks, new CellGrid(2), { start: START, stepMs: STEP_MS, dKm: D }, 0, steps, () => true, out, { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0 }, () => false);
+    broadPhase(tracks, new SortedCells(2), { start: START, stepMs: STEP_MS, dKm: D }, 0, steps, () => true, out, { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0 }, () => false);
     expect(out.length).toBe(0);
   });
 });
