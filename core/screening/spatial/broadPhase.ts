@@ -65,6 +65,11 @@ export function broadPhase(
   const st = new Float64Array(n * 6);
   const R = new Float64Array(n);
   const D = s.dKm;
+  // The step's states gathered in cell order, so pair loops read memory in sequence.
+  const cap = members.length;
+  const gx = new Float64Array(cap), gy = new Float64Array(cap), gz = new Float64Array(cap);
+  const gu = new Float64Array(cap), gv = new Float64Array(cap), gw = new Float64Array(cap);
+  const gR = new Float64Array(cap), gq = new Float64Array(cap);
   let tests = 0;
   for (let k = k0; k < k1; k++) {
     if (cancelled()) return false;
@@ -78,6 +83,13 @@ export function broadPhase(
       cells.add(i, st[o]!, st[o + 1]!, st[o + 2]!);
     }
     cells.build();
+    const sorted = cells.sorted;
+    for (let x = 0; x < members.length; x++) {
+      const o = sorted[x]! * 6;
+      gx[x] = st[o]!; gy[x] = st[o + 1]!; gz[x] = st[o + 2]!;
+      gu[x] = st[o + 3]!; gv[x] = st[o + 4]!; gw[x] = st[o + 5]!;
+      gR[x] = D + R[sorted[x]!]!; gq[x] = q[sorted[x]!]!;
+    }
     stats.steps++;
     stats.objectSteps += members.length;
     const nc = cells.cells, keys = cells.cellKeys, at = cells.cellStart;
@@ -102,27 +114,24 @@ export function broadPhase(
   function pairsOf(a0: number, a1: number, b0: number, b1: number, k: number): void {
     const sorted = cells.sorted;
     for (let x = a0; x < a1; x++) {
-      const a = sorted[x]!;
-      const oa = a * 6;
-      const xa = st[oa]!, ya = st[oa + 1]!, za = st[oa + 2]!;
-      const ua = st[oa + 3]!, va = st[oa + 4]!, wa = st[oa + 5]!;
-      const ra = D + R[a]!, qa = D + q[a]!;
+      const xa = gx[x]!, ya = gy[x]!, za = gz[x]!;
+      const ua = gu[x]!, va = gv[x]!, wa = gw[x]!;
+      const ra = gR[x]!, qa = D + gq[x]!;
       const from = b0 < 0 ? x + 1 : b0, to = b0 < 0 ? a1 : b1;
       for (let y = from; y < to; y++) {
-        const b = sorted[y]!;
         tests++;
-        const ob = b * 6;
-        const dx = st[ob]! - xa, dy = st[ob + 1]! - ya, dz = st[ob + 2]! - za;
-        const l1 = ra + R[b]!;
+        const dx = gx[y]! - xa, dy = gy[y]! - ya, dz = gz[y]! - za;
+        const l1 = ra + gR[y]! - D; // D + R_a + R_b
         if (dx * dx + dy * dy + dz * dz > l1 * l1) continue;
-        const wx = st[ob + 3]! - ua, wy = st[ob + 4]! - va, wz = st[ob + 5]! - wa;
+        const wx = gu[y]! - ua, wy = gv[y]! - va, wz = gw[y]! - wa;
         const ww = wx * wx + wy * wy + wz * wz;
         let tau = ww > 0 ? -(dx * wx + dy * wy + dz * wz) / ww : 0;
         if (tau > half) tau = half;
         else if (tau < -half) tau = -half;
         const ex = dx + wx * tau, ey = dy + wy * tau, ez = dz + wz * tau;
-        const l2 = qa + q[b]!;
+        const l2 = qa + gq[y]!;
         if (ex * ex + ey * ey + ez * ez > l2 * l2) continue;
+        const a = sorted[x]!, b = sorted[y]!;
         const i = a < b ? a : b, j = a < b ? b : a;
         if (!keep(i, j)) continue;
         stats.candidates++;
