@@ -23,7 +23,7 @@
  * tested at every step they share a neighbourhood, whatever their geometry.
  */
 import { CandidateList } from './candidates.js';
-import { HALF_NEIGHBOUR_DELTAS, type SortedCells } from './sortedCells.js';
+import { HALF_NEIGHBOUR_ROWS, type SortedCells } from './sortedCells.js';
 import type { BlockTracks } from './blockTracks.js';
 
 export interface BroadPhaseStats {
@@ -95,15 +95,15 @@ export function broadPhase(
     const nc = cells.cells, keys = cells.cellKeys, at = cells.cellStart;
     // pairs inside each cell
     for (let c = 0; c < nc; c++) if (at[c + 1]! - at[c]! > 1) pairsOf(at[c]!, at[c + 1]!, -1, -1, k);
-    // pairs of neighbouring cells: for each offset, one merge walk over the sorted keys
-    for (let h = 0; h < HALF_NEIGHBOUR_DELTAS.length; h++) {
-      const delta = HALF_NEIGHBOUR_DELTAS[h]!;
+    // pairs of neighbouring cells: for each row of offsets, one merge walk over the sorted keys
+    for (let h = 0; h < HALF_NEIGHBOUR_ROWS.length; h++) {
+      const row = HALF_NEIGHBOUR_ROWS[h]!;
       let j = 0;
       for (let c = 0; c < nc; c++) {
-        const target = keys[c]! + delta;
-        while (j < nc && keys[j]! < target) j++;
+        const lo = keys[c]! + row.base + row.dzFrom, hi = keys[c]! + row.base + 1;
+        while (j < nc && keys[j]! < lo) j++;
         if (j === nc) break;
-        if (keys[j] === target) pairsOf(at[c]!, at[c + 1]!, at[j]!, at[j + 1]!, k);
+        for (let m = j; m < nc && keys[m]! <= hi; m++) pairsOf(at[c]!, at[c + 1]!, at[m]!, at[m + 1]!, k);
       }
     }
   }

@@ -14,17 +14,19 @@
 const LIMIT = 511;
 const OFFSET = 512;
 
-/** The 13 offsets of a half neighbourhood, as key differences (all positive): each unordered
- *  pair of neighbouring cells is visited once, from the cell with the smaller key. */
-export const HALF_NEIGHBOUR_DELTAS: Int32Array = (() => {
-  const out: number[] = [];
-  for (let dx = -1; dx <= 1; dx++)
-    for (let dy = -1; dy <= 1; dy++)
-      for (let dz = -1; dz <= 1; dz++) {
-        if (dx > 0 || (dx === 0 && dy > 0) || (dx === 0 && dy === 0 && dz > 0)) out.push(dx * (1 << 20) + dy * (1 << 10) + dz);
-      }
-  return Int32Array.from(out);
-})();
+/**
+ * The half neighbourhood (13 of the 26 neighbours: each unordered pair of neighbouring cells
+ * visited once, from the cell with the smaller key) as rows along z: for each (dx, dy) below,
+ * the neighbours are the keys key + base + dz for dz in [dzFrom, 1], a contiguous key range,
+ * so one merge walk per row finds them (5 walks instead of 13).
+ */
+export const HALF_NEIGHBOUR_ROWS: readonly { readonly base: number; readonly dzFrom: number }[] = [
+  { base: 0, dzFrom: 1 }, // (0, 0, +1)
+  { base: 1 << 10, dzFrom: -1 }, // (0, +1, −1..+1)
+  { base: (1 << 20) - (1 << 10), dzFrom: -1 }, // (+1, −1, −1..+1)
+  { base: 1 << 20, dzFrom: -1 }, // (+1, 0, −1..+1)
+  { base: (1 << 20) + (1 << 10), dzFrom: -1 }, // (+1, +1, −1..+1)
+];
 
 export class SortedCells {
   private keys: Int32Array;
