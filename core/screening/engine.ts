@@ -6,6 +6,7 @@ import { SampledTrajectory, type SampleTable } from '../propagation/sampledTraje
 import { buildSgp4Model, exactModel, type OrbitModel } from './orbitModel.js';
 import { buildStateGrid, gridStepMs, type StateGrid } from './primaryGrid.js';
 import { candidateRegions, type FilterStats, type Regions } from './pairFilter.js';
+import { primaryBlockNormals, secondaryBlocks, type SecondaryBlocks } from './secondaryWindows.js';
 import { findEncounters, PropagationError } from './refine.js';
 import { volumeBoundKm } from './geometry.js';
 import { MU_EARTH_WGS72, R_EARTH_WGS72 } from '../units.js';
@@ -106,6 +107,14 @@ export class ScreeningSession {
 
   private readonly validity = new Map<string, number | null>();
   private readonly probe = new Float64Array(6);
+  /**
+   * Per-secondary tables of the time filter, kept for the secondary being screened: fleet
+   * screening visits each secondary once per primary in a row (ScreeningChunk.screenShared),
+   * so they are computed once per secondary instead of once per pair.
+   */
+  private blocks: { id: string; tables: SecondaryBlocks | null } | null = null;
+  /** Per-primary plane normals at the time filter's block boundaries. */
+  private readonly normals = new Map<string, Float64Array>();
 
   constructor(readonly settings: WindowSettings) {}
 
@@ -198,6 +207,19 @@ export class ScreeningSession {
     return g;
   }
 
+  private sharedTables(p: ScreeningObject, mp: OrbitModel, s: ScreeningObject, ms: OrbitModel) {
+    const { start, end } = this.settings;
+    if (this.blocks?.id !== s.id) {
+      this.blocks = { id: s.id, tables: secondaryBlocks(ms, start, end, this.blocks?.tables ?? undefined) };
+    }
+    let normals = this.normals.get(p.id);
+    if (!normals) {
+      normals = primaryBlockNormals(mp, start, end);
+      this.normals.set(p.id, normals);
+    }
+    return { blocks: this.blocks.tables, normals };
+  }
+
   /** All encounters of one primary (with its grid) and one secondary. */
   screenPair(p: ScreeningObject, grid: StateGrid, s: ScreeningObject): Encounter[] {
     if (p.id === s.id) return [];
@@ -223,7 +245,9 @@ export class ScreeningSession {
     // An object that decays inside the window is screened up to that instant.
     const end = Math.min(this.settings.end, this.validUntil(p) ?? 0, this.validUntil(s) ?? 0) as Instant;
     if (end <= start) return [];
-    const regions = candidateRegions(grid, ms, d, start, end, this.stats, mp);
+    // The shared tables cover the whole window; a pair cut short by a decay computes its own.
+    const shared = end === this.settings.end && mp.hasPlane ? this.sharedTables(p, mp, s, ms) : null;
+    const regions = candidateRegions(grid, ms, d, start, end, this.stats, mp, shared);
     if (regions.length === 0) return [];
     const minPeriodMs = Math.min(p.periodMin, s.periodMin) * 60_000;
     const step = Math.min(REFINE_MAX_STEP_MS, minPeriodMs / 16);

@@ -2,7 +2,7 @@ import type { Instant } from '../time/instant.js';
 import type { OrbitModel } from './orbitModel.js';
 import type { StateGrid } from './primaryGrid.js';
 import { TRACK_STRIDE } from './planarTrack.js';
-import { secondaryPlaneWindows, type Windows } from './secondaryWindows.js';
+import { secondaryPlaneWindows, type SecondaryBlocks, type Windows } from './secondaryWindows.js';
 
 /**
  * Candidate time regions of one primary–secondary pair, by conservative filters (the time and
@@ -56,11 +56,14 @@ export function candidateRegions(
   end: Instant,
   stats?: FilterStats,
   p?: OrbitModel | null,
+  /** tables shared between the pairs of one secondary / one primary (secondaryWindows.ts) */
+  shared?: { readonly blocks: SecondaryBlocks | null; readonly normals: Float64Array } | null,
 ): Regions {
   // Filter 1b first (cheapest, most selective): the secondary must be near the primary's mean
   // plane. The primary's true position is within ε_P of that plane, the secondary's within ε_S
   // of its model. Then filter 1 runs only inside those windows.
-  const w = p ? secondaryPlaneWindows(s, p, dKm + s.epsKm + p.epsKm + NORMAL_INTERP_KM, start, end) : null;
+  const thr1b = dKm + s.epsKm + (p?.epsKm ?? 0) + NORMAL_INTERP_KM;
+  const w = p ? secondaryPlaneWindows(s, p, thr1b, start, end, shared?.blocks, shared?.normals) : null;
   let planeRegions: Regions;
   if (!s.hasPlane) planeRegions = w ?? [start, end];
   else if (w) {
