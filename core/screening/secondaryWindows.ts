@@ -1,5 +1,6 @@
 import type { Instant } from '../time/instant.js';
 import type { OrbitModel } from './orbitModel.js';
+import { pushRegion, type Regions } from './regions.js';
 
 /**
  * Time windows in which the secondary's model position can be within `thrKm` of the primary's
@@ -19,7 +20,8 @@ const CURVE_PAD_RAD = 1e-4;
 /** Padding of each time window (ms): M(t) non-linearity, e drift and rounding. */
 const TIME_PAD_MS = 1000;
 
-export type Windows = number[]; // flat [a0, b0, a1, b1, ...], sorted, disjoint
+/** Windows are time regions (regions.ts). */
+export type Windows = Regions;
 
 /**
  * What one secondary contributes to every pair it is in, computed once per secondary and shared
@@ -81,14 +83,6 @@ export function primaryBlockNormals(p: OrbitModel, start: number, end: number): 
 
 // Scratch buffers (single-threaded per worker; no allocation per call).
 const ME0 = new Float64Array(7);
-
-function pushWindow(out: Windows, a: number, b: number): void {
-  if (b < a) return;
-  const n = out.length;
-  if (n > 0 && out[n - 1]! >= a) {
-    if (b > out[n - 1]!) out[n - 1] = b;
-  } else out.push(a, b);
-}
 
 const TWO_PI = 2 * Math.PI;
 
@@ -168,7 +162,7 @@ export function secondaryPlaneWindows(
     const A = Math.min(A0, A1) - CURVE_PAD_RAD;
     const c = thrKm / (rhoMin * A);
     if (!(c < 1) || !(A > 0) || !(rhoMin > 0)) {
-      pushWindow(out, t0 - TIME_PAD_MS, t1 + TIME_PAD_MS);
+      pushRegion(out, t0 - TIME_PAD_MS, t1 + TIME_PAD_MS);
     } else {
       const beta = Math.asin(c);
       const thLo = Math.min(th0, th1) - CURVE_PAD_RAD, thHi = Math.max(th0, th1) + CURVE_PAD_RAD;
@@ -186,7 +180,7 @@ export function secondaryPlaneWindows(
         const u1 = thLo + Math.PI / 2 + k * Math.PI - beta, u2 = thHi + Math.PI / 2 + k * Math.PI + beta;
         const Ma = meanFromTrue(u1 - wHi, e), Mb = meanFromTrue(u2 - wLo, e);
         const ta = tc + (Ma - Mc) / Mdot, tb = tc + (Mb - Mc) / Mdot;
-        pushWindow(out, Math.max(t0, ta) - TIME_PAD_MS, Math.min(t1, tb) + TIME_PAD_MS);
+        pushRegion(out, Math.max(t0, ta) - TIME_PAD_MS, Math.min(t1, tb) + TIME_PAD_MS);
       }
     }
     th0 = th1;
