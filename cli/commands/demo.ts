@@ -4,6 +4,8 @@ import { allEventsOption, numberIn, workersOption } from '../options.js';
 const DEFAULT_DIR = 'keepclear-demo';
 const DEMO_DB = 'keepclear-demo.db';
 const REPORT_DIR = 'report';
+/** The summary lists this many events needing attention; the report lists them all. */
+const DEMO_SUMMARY_ROWS = 10;
 
 interface DemoOptions {
   out?: string;
@@ -138,7 +140,7 @@ export default defineCommand<DemoOptions>({
           `Database: ${dbPath}`,
           `Inputs:   ${join(dir, 'week-*')} (catalogues, fleet, history, received CDMs)`,
           `Done in ${((performance.now() - t0) / 1000).toFixed(1)} s.`,
-        ]),
+        ], DEMO_SUMMARY_ROWS),
       );
       writeFileSync(join(reportDir, 'README.txt'), `Keepclear demo reports for ${demo.operator.name} (synthetic catalogue; invented operator).\nrun-${last.id}.html: the week's run report. event-*.html: the events of tier ${urgent ? TIERS[urgent].label : '—'}.\n`);
       return 0;
