@@ -140,7 +140,7 @@ export default defineCommand<DemoOptions>({
           `Database: ${dbPath}`,
           `Inputs:   ${join(dir, 'week-*')} (catalogues, fleet, history, received CDMs)`,
           `Done in ${((performance.now() - t0) / 1000).toFixed(1)} s.`,
-        ], DEMO_SUMMARY_ROWS),
+        ], undefined, DEMO_SUMMARY_ROWS),
       );
       writeFileSync(join(reportDir, 'README.txt'), `Keepclear demo reports for ${demo.operator.name} (synthetic catalogue; invented operator).\nrun-${last.id}.html: the week's run report. event-*.html: the events of tier ${urgent ? TIERS[urgent].label : '—'}.\n`);
       return 0;
