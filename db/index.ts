@@ -108,3 +108,4 @@ export {
   type PlanTargetRecord,
   type StoredPlan,
 } from './plans.js';
+export { newestElementEpochMs } from './catalogSummary.js';

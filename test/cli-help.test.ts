@@ -22,6 +22,7 @@ const EXPECTED: Record<string, string[]> = {
   demo: ['--out', '--size', '--workers', '--all-events'],
   plan: ['--event', '--target-miss-km', '--target-pc', '--db', '--json', '--oem', '--opm'],
   spacecraft: ['--id', '--mass-kg', '--isp-s', '--db', '--json'],
+  serve: ['--db', '--port'],
 };
 
 let dir: string;
