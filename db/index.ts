@@ -95,3 +95,17 @@ export {
   type NewEphemeris,
   type RunEphemeris,
 } from './ephemerides.js';
+export { getSpacecraft, setSpacecraft, listSpacecraft, type StoredSpacecraft } from './spacecraft.js';
+export {
+  storePlan,
+  getPlan,
+  latestPlanOfEvent,
+  plansOfEvent,
+  latestPlanSummaries,
+  type NewPlan,
+  type PlanStatus,
+  type PlanSummary,
+  type PlanTargetRecord,
+  type StoredPlan,
+} from './plans.js';
+export { newestElementEpochMs } from './catalogSummary.js';

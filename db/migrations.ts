@@ -4,6 +4,7 @@ import { SCHEMA_V1 } from './schemaV1.js';
 import { SCHEMA_V3_RUNS } from './schemaV3.js';
 import { SCHEMA_V4_SERIES } from './schemaV4.js';
 import { SCHEMA_V5_EPHEMERIDES } from './schemaV5.js';
+import { SCHEMA_V6_PLANS } from './schemaV6.js';
 
 /** One schema step. `version` is the PRAGMA user_version the database has after it. */
 export interface Migration {
@@ -42,6 +43,11 @@ export const MIGRATIONS: readonly Migration[] = [
     version: 5,
     name: 'owner ephemerides (OEM): messages, segments with packed nodes, the ephemeris each run used',
     up: (db) => db.sqlite.exec(SCHEMA_V5_EPHEMERIDES),
+  },
+  {
+    version: 6,
+    name: 'spacecraft mass and Isp per owner object; manoeuvre plans kept with their event',
+    up: (db) => db.sqlite.exec(SCHEMA_V6_PLANS),
   },
 ];
 

@@ -20,6 +20,9 @@ const EXPECTED: Record<string, string[]> = {
   report: ['--run', '--event', '--out', '--db'],
   export: ['--event', '--run', '--series', '--format', '--out', '--db'],
   demo: ['--out', '--size', '--workers', '--all-events'],
+  plan: ['--event', '--target-miss-km', '--target-pc', '--db', '--json', '--oem', '--opm'],
+  spacecraft: ['--id', '--mass-kg', '--isp-s', '--db', '--json'],
+  serve: ['--db', '--port'],
 };
 
 let dir: string;

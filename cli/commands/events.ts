@@ -34,7 +34,8 @@ export default defineCommand<EventsOptions>({
     if (o.run !== undefined && o.series !== undefined) {
       throw new KeepclearError('BAD_ARGUMENT', 'give either --run or --series, not both');
     }
-    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns } = await import('../../db/index.js');
+    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns, latestPlanSummaries } = await import('../../db/index.js');
+    const { planCell, planSummaryToJson } = await import('../../app/plan/summary.js');
     const { eventToJson, runToJson } = await import('../../app/eventJson.js');
     const { ensureLinked, seriesView, countByState } = await import('../../app/series.js');
     const { seriesStatesOf, seriesToJson } = await import('../../app/seriesJson.js');
@@ -63,18 +64,25 @@ export default defineCommand<EventsOptions>({
         events = [...(run ? eventsOfRun(db, run.id) : []), ...fromCdm].sort((a, b) => a.tca - b.tca);
       }
       const states = seriesStatesOf(db, events);
+      const plans = latestPlanSummaries(db, events.map((e) => e.id));
       if (o.json !== undefined) {
         writeJsonWithCaution(o.json, {
           run: run ? runToJson(run) : null,
           // Extras (e.g. a message's reported Pc, kept apart from Keepclear's own) ride along.
-          events: events.map((e) => ({ ...eventToJson(e, states), extra: getEventExtra(db, e.id) ?? {} })),
+          // plan: the event's newest manoeuvre plan (keepclear plan), null when none.
+          events: events.map((e) => {
+            const p = plans.get(e.id);
+            return { ...eventToJson(e, states), extra: getEventExtra(db, e.id) ?? {}, plan: p ? planSummaryToJson(p) : null };
+          }),
         });
       }
       if (o.json !== '-') {
         if (run) process.stdout.write(`run ${run.id} (${run.kind}, ${run.status}): ${run.eventCount ?? 0} event(s)\n`);
         const ids = new Set(events.flatMap((e) => (e.seriesId ? [e.seriesId] : [])));
         const more = ids.size > 0 ? [`${seriesCounts(countByState(db, ids))} (keepclear events --series ID shows one)`] : [];
-        process.stdout.write(eventSummary(events, o.allEvents === true, more));
+        const cells = new Map([...plans].map(([id, p]) => [id, planCell(p)]));
+        process.stdout.write(eventSummary(events, o.allEvents === true, more, cells));
+        if (plans.size > 0) process.stdout.write(`${plans.size} event(s) with a manoeuvre plan; keepclear report --event ID shows it.\n`);
       }
       return 0;
     } finally {
