@@ -14,6 +14,7 @@ import { sampleCapacity, sampleStepMs, sampleTrajectory } from '../propagation/s
 import type { FlaggedObject, ScreeningSettings } from './types.js';
 import type { Encounter } from '../events/index.js';
 import type { ScreeningWorkerApi } from './worker.js';
+import { runAllVsAll } from './spatial/runAllVsAll.js';
 
 export interface RunOptions {
   /** worker threads; 0 runs in this thread. Default: one per core. */
@@ -71,6 +72,7 @@ export async function runScreening(
   }
   const ids = new Set(elementSets.map((e) => e.objectId));
   const all = settings.primaries === 'all';
+  if (settings.shard && !all) throw new KeepclearError('BAD_ARGUMENT', 'a shard (--shard K/N) needs an all-vs-all run (--all)');
   const primaries = all ? [] : [...new Set(settings.primaries as readonly string[])];
   const given = new Map((options.primaryTrajectories ?? []).map((p) => [p.trajectory.objectId, p]));
   if (all && given.size > 0) {
@@ -119,7 +121,10 @@ export async function runScreening(
     : null;
   try {
     let results: ChunkResult[];
-    if (nWorkers <= 0) {
+    if (all) {
+      // All-vs-all goes through the spatial index (spatial/runAllVsAll.ts).
+      results = await runAllVsAll(elementSets, win, control, nWorkers, settings.shard);
+    } else if (nWorkers <= 0) {
       const chunk = new ScreeningChunk(catalog, win, control, sampled);
       if (all) results = [chunk.screenAllPairs(0, 1)];
       else {
