@@ -11,6 +11,7 @@ import { KeepclearError } from '../core/errors.js';
 import { coverageGap, describeCoverageGap, EphemerisTrajectory } from '../core/propagation/ephemeris.js';
 import { toIso, type Instant } from '../core/time/instant.js';
 import { listEphemerides, loadEphemeris, type EphemerisSummary, type KeepclearDb } from '../db/index.js';
+import { describeEphemeris } from './ephemerisText.js';
 
 export interface PrimaryEphemeris {
   readonly summary: EphemerisSummary;
@@ -24,9 +25,6 @@ export interface EphemerisChoice {
   readonly notes: readonly string[];
 }
 
-/** "FILE (OEM, created ISO)": how runs and terminals name the ephemeris used. */
-export const describeEphemeris = (e: { fileName: string; creationDate: Instant }): string =>
-  `${e.fileName} (OEM, created ${toIso(e.creationDate)})`;
 
 export function chooseEphemerides(db: KeepclearDb, primaries: readonly string[], start: Instant, end: Instant): EphemerisChoice {
   const used = new Map<string, PrimaryEphemeris>();

@@ -9,7 +9,7 @@ import { KeepclearError } from '../../core/errors.js';
 import { DECISION_AID_NOTE } from '../../core/risk/assess.js';
 import type { Instant } from '../../core/time/instant.js';
 import { toIso } from '../../core/time/instant.js';
-import { getEventExtra, type KeepclearDb } from '../../db/index.js';
+import { getEventExtra, runEphemerides, type KeepclearDb } from '../../db/index.js';
 import { eventToJson, runToJson } from '../eventJson.js';
 import { seriesToJson } from '../seriesJson.js';
 import { cdmTextOfEvent, type CdmExportOptions } from './cdm.js';
@@ -65,7 +65,7 @@ export function exportJson(db: KeepclearDb, sel: ExportSelection, now: Instant):
   return {
     caution: DECISION_AID_NOTE,
     export: { kind: sel.kind, id: sel.id, createdAt: toIso(now), events: sel.events.length },
-    run: sel.run ? runToJson(sel.run) : null,
+    run: sel.run ? runToJson(sel.run, sel.run.flagged, runEphemerides(db, sel.run.id)) : null,
     events: sel.events.map((e) => ({ ...eventToJson(e), extra: getEventExtra(db, e.id) ?? {} })),
   };
 }
