@@ -12,11 +12,13 @@ import {
   getObject,
   getRun,
   getSetting,
+  latestPlanOfEvent,
   listCdms,
   type KeepclearDb,
   type RunRecord,
 } from '../../db/index.js';
 import { RiskContext, TIER_SETTINGS_KEY } from '../risk.js';
+import { planModelOf } from './planModel.js';
 import type {
   CatalogueNote,
   EncounterPlaneInput,
@@ -49,7 +51,7 @@ export interface ReportOptions {
 export interface EventReportOptions extends ReportOptions {
   /** the event's series (trend and RTN plots); the series feature fills it */
   readonly series?: SeriesModel | null;
-  /** a manoeuvre plan for the event; the plan feature fills it */
+  /** a manoeuvre plan for the event; default: the event's newest stored plan (keepclear plan), null for none */
   readonly plan?: PlanModel | null;
 }
 
@@ -232,6 +234,11 @@ function eventFacts(e: ConjunctionEvent, fromCdm: boolean, run: RunRecord | null
   return facts;
 }
 
+function storedPlan(db: KeepclearDb, eventId: string): PlanModel | null {
+  const p = latestPlanOfEvent(db, eventId);
+  return p ? planModelOf(p) : null;
+}
+
 export function eventReportModelFromDb(db: KeepclearDb, eventId: string, opts: EventReportOptions = {}): EventReportModel {
   const e = getEvent(db, eventId);
   if (!e) throw new KeepclearError('NOT_FOUND', `no event "${eventId}"; list events with keepclear events`);
@@ -261,7 +268,7 @@ export function eventReportModelFromDb(db: KeepclearDb, eventId: string, opts: E
       reportedPc: m.reportedPc,
     })),
     series: opts.series ?? null,
-    plan: opts.plan ?? null,
+    plan: opts.plan !== undefined ? opts.plan : storedPlan(db, e.id),
     thresholds: { pcPlan: t.pcPlan, pcMonitor: t.pcMonitor },
     caution: DECISION_AID_NOTE,
   };
