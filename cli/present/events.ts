@@ -64,9 +64,15 @@ export function eventTable(events: readonly ConjunctionEvent[], plans?: Readonly
 
 /**
  * The events block of `screen`, `events` and `demo`: tier counts, the events needing attention
- * (or all, by TCA, with `all`), a pointer to the rest, and the decision-aid note.
+ * (or all, by TCA, with `all`), a pointer to the rest, `more` lines (series counts), and the
+ * decision-aid note.
  */
-export function eventSummary(events: readonly ConjunctionEvent[], all: boolean, plans?: ReadonlyMap<string, string>): string {
+export function eventSummary(
+  events: readonly ConjunctionEvent[],
+  all: boolean,
+  more: readonly string[] = [],
+  plans?: ReadonlyMap<string, string>,
+): string {
   const out: string[] = [`Events by tier: ${tierCounts(events)}`];
   if (events.length === 0) {
     out.push('No events in the screening volume.');
@@ -82,6 +88,7 @@ export function eventSummary(events: readonly ConjunctionEvent[], all: boolean, 
       out.push(`${rest} ${labelOf(LOWEST_TIER)} event(s) not listed: --all-events lists every event; --json FILE writes them all.`);
     }
   }
+  if (more.length > 0) out.push('', ...more);
   out.push('', `Note: ${DECISION_AID_NOTE}`);
   return out.join('\n').replace(/\n{3,}/g, '\n\n') + '\n';
 }
