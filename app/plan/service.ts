@@ -224,5 +224,6 @@ export async function planForEvent(db: KeepclearDb, eventId: string, req: PlanRe
     });
   }
   const totalMs = performance.now() - t0;
-  return { ...base, planId, timings: { ...base.timings, totalMs }, document: { ...document, planId } };
+  const timings = { ...base.timings, totalMs };
+  return { ...base, planId, timings, document: { ...document, planId, timingsMs: { ...timings } } };
 }
