@@ -22,16 +22,17 @@ import { screenAndStore } from '../app/screen.js';
 import { KeepclearError } from '../core/errors.js';
 import type { ConjunctionEvent } from '../core/events/index.js';
 import { formatOmmJson } from '../core/formats/omm/index.js';
-import { parseOemFile } from '../core/formats/oem/index.js';
+import { parseOemFile, sampleOem } from '../core/formats/oem/index.js';
 import { parseOpmKvn } from '../core/formats/opm/index.js';
 import { formatTleFile } from '../core/formats/tle/index.js';
 import { opmStateTeme } from '../core/manoeuvre/index.js';
+import { EphemerisTrajectory } from '../core/propagation/ephemeris.js';
 import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import { buildDemoScenario } from '../core/synthetic/demo.js';
 import { tleExactEpoch } from '../core/synthetic/draft.js';
 import { fitElementSetToState } from '../core/synthetic/fit.js';
 import { parseIso, type Instant } from '../core/time/instant.js';
-import { latestElementSets, latestPlanOfEvent, openDatabase, setSpacecraft, storeElementSets, type KeepclearDb } from '../db/index.js';
+import { getEphemeris, latestElementSets, latestPlanOfEvent, openDatabase, recordRunEphemeris, storeEphemeris, setSpacecraft, storeElementSets, type KeepclearDb } from '../db/index.js';
 
 const START = parseIso('2026-12-07T00:00:00Z')!;
 const END = (START + 2 * 86_400_000) as Instant;
@@ -206,5 +207,36 @@ describe('files of the plan parse back to the same numbers', () => {
     const s = opmStateTeme(m);
     for (let k = 0; k < 3; k++) expect(Math.abs(s[k]! - sgp4[k]!)).toBeLessThan(FILE_POS_TOL_KM);
     for (let k = 3; k < 6; k++) expect(Math.abs(s[k]! - sgp4[k]!)).toBeLessThan(FILE_VEL_TOL_KM_S);
+  });
+});
+
+describe('a primary screened from an owner ephemeris', () => {
+  // An OEM of the primary's own SGP4 trajectory (60-s LAGRANGE 9 nodes: interpolation error of
+  // micrometres, core/formats/oem/sample.ts), recorded as what the run screened the primary with.
+  // Planning on it must give the plan made on SGP4 itself, to the solver's own precision.
+  let onOem: EventPlan;
+  beforeAll(async () => {
+    const set = latestElementSets(db, ['100001'])[0]!;
+    const oem = sampleOem(
+      [{ trajectory: new Sgp4Trajectory(set), start: (START - 86_400_000) as Instant, end: (END + 6 * 3_600_000) as Instant, stepS: 60 }],
+      { objectName: 'ALPHA-1', objectId: '100001', originator: 'TEST', creationDate: START, file: 'owner.oem' },
+    );
+    const { id } = storeEphemeris(db, { objectId: '100001', fileName: 'owner.oem', sha256: 'test-oem', header: oem.header, segments: oem.segments });
+    recordRunEphemeris(db, event.runId, getEphemeris(db, id)!);
+    onOem = await planForEvent(db, event.id, { ...REQUEST, store: false });
+  }, 120_000);
+
+  it('plans on the ephemeris and says so, with the same burn as on SGP4', () => {
+    expect(onOem.core.manoeuvredTrajectory!.base).toBeInstanceOf(EphemerisTrajectory);
+    expect(onOem.notes.some((n) => n.includes('owner ephemeris owner.oem'))).toBe(true);
+    const a = onOem.core.proposal!, b = second.core.proposal!;
+    // Lead times are fractions of the period from the state at TCA; the ephemeris' velocity is
+    // the derivative of its positions, SGP4's differs from that by up to 2.4 cm/s in LEO
+    // (test/oem-frames.test.ts): periods differ by ~1e-5, lead times by < 1 s.
+    expect(Math.abs(a.leadTimeS - b.leadTimeS)).toBeLessThan(1);
+    expect(a.direction).toBe(b.direction);
+    // Bracketing tolerances of the solver (core/manoeuvre/solveAlong.ts) on inputs equal to µm.
+    expect(Math.abs(a.deltaVMs! / b.deltaVMs! - 1)).toBeLessThan(1e-3);
+    expect(onOem.document.proposal!.achievedMissKm!).toBeGreaterThanOrEqual(TARGET_KM);
   });
 });
