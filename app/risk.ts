@@ -18,7 +18,12 @@ export class RiskContext {
   private readonly history = new Map<string, ElementSet[]>();
   private readonly thresholds: Partial<TierThresholds> | undefined;
 
-  constructor(private readonly db: KeepclearDb) {
+  /** `encounterModel`: see AssessInputs.encounterModel ('auto' by default: 3-D Pc where the
+   * short-encounter assumption fails). */
+  constructor(
+    private readonly db: KeepclearDb,
+    private readonly options: { readonly encounterModel?: 'auto' | '2d' } = {},
+  ) {
     this.thresholds = (getSetting(db, TIER_SETTINGS_KEY) as Partial<TierThresholds> | undefined) ?? undefined;
   }
 
@@ -55,6 +60,7 @@ export class RiskContext {
       hbrPrimaryM: cdm?.hbrPrimaryM ?? getObject(this.db, e.primary)?.hardBodyRadiusM ?? null,
       hbrSecondaryM: cdm?.hbrSecondaryM ?? getObject(this.db, e.secondary)?.hardBodyRadiusM ?? null,
       ...(this.thresholds ? { thresholds: this.thresholds } : {}),
+      ...(this.options.encounterModel ? { encounterModel: this.options.encounterModel } : {}),
     });
   }
 }

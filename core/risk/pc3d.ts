@@ -39,6 +39,13 @@ export const PC3D_TIME_REL_TOL = 1e-6;
 const SPHERE_BASE_NODES = 8;
 const SPHERE_MAX_NODES = 48;
 const MAX_TIME_INTERVALS = 400;
+/**
+ * Absolute accuracy of the time quadrature: a Pc known to ±1e-15 is exact for every purpose (tier
+ * thresholds are 1e-4 and 1e-7; Pc is shown down to 1e-10). Without it, encounters with Pc near
+ * 1e-200 (a 2 km miss with 50 m covariances) would be refined to full relative accuracy in
+ * vain, at ~10× the cost.
+ */
+export const PC3D_ABS_TOL = 1e-15;
 
 const INV_SQRT_2PI = 0.3989422804014327;
 const TWO_PI_POW_1_5 = Math.pow(2 * Math.PI, 1.5);
@@ -204,7 +211,7 @@ export function pc3d(inp: Pc3dInput, mu = MU_M3_S2): Pc3dResult {
   const { rate, count } = makeRate(inp, sphereRule(nTheta), mu);
   const marks = [0, 1.5, 4].map((k) => k * sigmaT).filter((x) => x < half);
   const breaks = [...new Set([-half, ...marks.slice(1).map((x) => -x).reverse(), ...marks, half])].sort((a, b) => a - b);
-  const res = integrateAdaptive(rate, breaks, PC3D_TIME_REL_TOL, MAX_TIME_INTERVALS);
+  const res = integrateAdaptive(rate, breaks, PC3D_TIME_REL_TOL, MAX_TIME_INTERVALS, PC3D_ABS_TOL);
   return {
     pc: Math.min(1, Math.max(0, res.value)),
     halfWindowS: half,
