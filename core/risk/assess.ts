@@ -18,10 +18,8 @@ import { checkShortEncounter } from './shortEncounter.js';
 import type { State6 } from './twoBody.js';
 import { DEFAULT_TIER_THRESHOLDS, tierFor, type TierThresholds } from './tiers.js';
 
-/** Shown wherever a Pc or tier could inform a manoeuvre decision. */
-export const DECISION_AID_NOTE =
-  'Keepclear results are a decision aid only. Defer to the screening provider\'s conjunction ' +
-  'messages, your licensed operating practice and local rules before deciding on any manoeuvre.';
+/** Shown wherever a Pc or tier could inform a manoeuvre decision (own file, so the renderer can import it alone). */
+export { DECISION_AID_NOTE } from './decisionAid.js';
 
 /** What is known about one object's position uncertainty at TCA; used in this order. */
 export interface CovarianceInput {
