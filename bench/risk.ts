@@ -17,22 +17,29 @@ try {
   const run = latestRun(db, 'done', ['screening']);
   if (!run) throw new Error(`${file}: no finished screening run`);
   const events = eventsOfRun(db, run.id);
-  const time = (model: 'auto' | '2d'): { ms: number; methods: Map<string, number> } => {
+  const slow = new Set<string>();
+  const time = (model: 'auto' | '2d'): { ms: number; slowMs: number; methods: Map<string, number> } => {
     const ctx = new RiskContext(db, { encounterModel: model });
     for (const e of events.slice(0, 5)) ctx.assess(e); // warm the JIT and the history cache
     const methods = new Map<string, number>();
+    let slowMs = 0;
     const t0 = performance.now();
     for (const e of events) {
+      const t = performance.now();
       const m = ctx.assess(e).pcMethod;
+      if (m === '3d-coppola') slow.add(e.id);
+      if (slow.has(e.id)) slowMs += performance.now() - t;
       methods.set(m, (methods.get(m) ?? 0) + 1);
     }
-    return { ms: performance.now() - t0, methods };
+    return { ms: performance.now() - t0, slowMs, methods };
   };
-  for (let round = 0; round < 2; round++) {
+  time('auto'); // which events take the 3-D method (and a first, cold pass)
+  for (let round = 0; round < 3; round++) {
     const two = time('2d'), auto = time('auto');
     console.log(
       `run ${run.id}: ${events.length} events; 2-D everywhere ${two.ms.toFixed(0)} ms; automatic ${auto.ms.toFixed(0)} ms ` +
-        `(+${(auto.ms - two.ms).toFixed(0)} ms); methods ${JSON.stringify(Object.fromEntries(auto.methods))}`,
+        `(+${(auto.ms - two.ms).toFixed(0)} ms); the ${slow.size} events with the 3-D method: ` +
+        `${two.slowMs.toFixed(0)} ms by 2-D, ${auto.slowMs.toFixed(0)} ms by 3-D; methods ${JSON.stringify(Object.fromEntries(auto.methods))}`,
     );
   }
 } finally {
