@@ -4,7 +4,7 @@
  * 60-s grid would have on the same inputs (measured on a sample of pairs, then scaled).
  *
  *   npm run bench                 all cases
- *   npm run bench -- one fleet    only the named cases (one, fleet, all, memory, series, world)
+ *   npm run bench -- one fleet    only the named cases (one, fleet, all, memory, series, world, ui3d)
  *   BENCH_SIZE=10000 npm run bench -- one
  */
 import { availableParallelism } from 'node:os';
@@ -16,6 +16,7 @@ import type { ElementSet } from '../core/elements/elementSet.js';
 import type { Instant } from '../core/time/instant.js';
 import { benchDemoWorld } from './demoWorld.js';
 import { benchSeries } from './series.js';
+import { benchUi3d } from './ui3d.js';
 
 const SIZE = Number(process.env.BENCH_SIZE ?? 30_000);
 const START = Date.parse('2026-12-07T00:00:00.000Z') as Instant;
@@ -63,7 +64,8 @@ function measureDistanceCost(): void {
 async function main(): Promise<void> {
   if (want('series')) benchSeries();
   if (want('world')) benchDemoWorld();
-  if (cases.length > 0 && cases.every((c) => c === 'series' || c === 'world')) return;
+  if (want('ui3d')) await benchUi3d();
+  if (cases.length > 0 && cases.every((c) => c === 'series' || c === 'world' || c === 'ui3d')) return;
   const workers = availableParallelism();
   console.log(`Keepclear bench: synthetic catalogue of ${SIZE} objects (seed 1), ${workers} worker(s), node ${process.version}`);
   const tGen = performance.now();
