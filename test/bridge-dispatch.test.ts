@@ -3,6 +3,7 @@ import { BridgeCallError, bridgeErrorCode, unwrapReply } from '../core/bridge/cl
 import { CHANNELS, ipcChannelName, type BridgeHandlers, type BridgeReply } from '../core/bridge/contract.js';
 import { eventDetailOf, eventRowOf, runSummaryOf, tierOf } from '../core/bridge/convert.js';
 import { dispatch } from '../core/bridge/dispatch.js';
+import { createBridgeHandlers } from '../app/bridge/handlers.js';
 import { KeepclearError } from '../core/errors.js';
 import type { ScreeningSettings } from '../core/screening/types.js';
 import type { Encounter, RiskAssessment } from '../core/events/index.js';
@@ -61,6 +62,7 @@ const RISK: RiskAssessment = {
  */
 function dbHandlers(db: KeepclearDb): BridgeHandlers {
   return {
+    ...createBridgeHandlers(db).handlers,
     'catalog.summary': () => ({ objectCount: countObjects(db), latestEpoch: null }),
     'runs.list': ({ limit }) => ({ runs: listRuns(db, limit).map(runSummaryOf) }),
     'runs.events': ({ runId }) => {
@@ -153,7 +155,7 @@ describe('dispatch', () => {
 
   it('validates before any handler runs', async () => {
     const spy = vi.fn();
-    const h: BridgeHandlers = { 'catalog.summary': spy, 'runs.list': spy, 'runs.events': spy, 'events.get': spy };
+    const h = Object.fromEntries(CHANNELS.map((c) => [c, spy])) as unknown as BridgeHandlers;
     expect(await dispatch(h, 'runs.events', { runId: 5 })).toEqual({
       ok: false,
       error: { code: 'BAD_REQUEST', message: 'bridge: runs.events: "runId" must be a string id, got the number 5' },

@@ -9,6 +9,7 @@ import { unwrapReply } from '../core/bridge/client.js';
 import { eventDetailOf, eventRowOf, runSummaryOf } from '../core/bridge/convert.js';
 import type { BridgeApi, BridgeHandlers, Channel, EventRow, Req, Res, RunSummary } from '../core/bridge/contract.js';
 import { dispatch } from '../core/bridge/dispatch.js';
+import { createBridgeHandlers } from '../app/bridge/handlers.js';
 import { KeepclearError } from '../core/errors.js';
 import { DECISION_AID_NOTE } from '../core/risk/assess.js';
 import type { Encounter } from '../core/events/index.js';
@@ -180,6 +181,7 @@ const enc = (secondary: string, offsetMs: number): Encounter => ({
 /** The bridge as the preload gives it, over dispatch and a real database. */
 function bridgeOver(db: KeepclearDb, calls: Channel[]): BridgeApi {
   const handlers: BridgeHandlers = {
+    ...createBridgeHandlers(db).handlers,
     'catalog.summary': () => ({ objectCount: 2, latestEpoch: '2026-12-02T23:00:00.000Z' }),
     'runs.list': ({ limit }) => ({ runs: listRuns(db, limit).map(runSummaryOf) }),
     'runs.events': ({ runId }) => {

@@ -14,6 +14,12 @@
  * This file is pure TypeScript (no Electron, no SQL, no DOM) so every side can import it.
  */
 import type { TierId } from '../risk/tiers.js';
+import { describe, ID_MAX_LENGTH, objectWith, withId, type Check } from './checks.js';
+import { jobStartCheck, type JobIdRequest, type JobStartRequest, type JobStatus, type JobsList } from './jobContract.js';
+import { reportCheck, type EventView, type ReportDocument, type ReportRequest } from './viewContract.js';
+
+export * from './jobContract.js';
+export * from './viewContract.js';
 
 // ───────────────────────────── requests ─────────────────────────────
 
@@ -139,6 +145,15 @@ export interface BridgeContract {
   'runs.list': { request: RunsListRequest; response: RunsList };
   'runs.events': { request: RunEventsRequest; response: RunEvents };
   'events.get': { request: EventGetRequest; response: EventResponse };
+  /** the event page: facts with unit and source, plots as SVG, series */
+  'events.view': { request: EventGetRequest; response: EventView };
+  /** a report as self-contained HTML, for the renderer to save */
+  'reports.make': { request: ReportRequest; response: ReportDocument };
+  /** long work: import, screening, plan (jobContract.ts) */
+  'jobs.start': { request: JobStartRequest; response: JobStatus };
+  'jobs.get': { request: JobIdRequest; response: JobStatus };
+  'jobs.cancel': { request: JobIdRequest; response: JobStatus };
+  'jobs.list': { request: CatalogSummaryRequest; response: JobsList };
 }
 
 export type Channel = keyof BridgeContract;
@@ -174,52 +189,7 @@ export type BridgeReply<C extends Channel = Channel> =
 // ───────────────────────────── validation ─────────────────────────────
 
 export const RUNS_LIST_MAX_LIMIT = 1000;
-/** ids are short ("R12", "R12-3", catalogue numbers); anything longer is not an id */
-export const ID_MAX_LENGTH = 128;
-
-/** null when acceptable, else what is wrong (without the channel prefix). */
-type Check = (req: unknown) => string | null;
-
-function describe(v: unknown): string {
-  if (v === undefined) return 'nothing';
-  if (v === null) return 'null';
-  if (Array.isArray(v)) return 'an array';
-  if (typeof v === 'string') return `the string ${JSON.stringify(v.length > 40 ? `${v.slice(0, 40)}…` : v)}`;
-  if (typeof v === 'number') return `the number ${v}`;
-  return typeof v === 'object' ? 'an object' : `a ${typeof v}`;
-}
-
-function isPlainObject(v: unknown): v is Record<string, unknown> {
-  if (typeof v !== 'object' || v === null || Array.isArray(v)) return false;
-  const proto: unknown = Object.getPrototypeOf(v);
-  return proto === Object.prototype || proto === null;
-}
-
-/** The request must be a plain object with no keys beyond `allowed` (typos are errors). */
-function objectWith(req: unknown, allowed: readonly string[]): string | null {
-  if (!isPlainObject(req)) return `the request must be a plain object, got ${describe(req)}`;
-  const extra = Object.keys(req).filter((k) => !allowed.includes(k));
-  if (extra.length > 0) {
-    const known = allowed.length > 0 ? `allowed: ${allowed.join(', ')}` : 'it takes no fields; send {}';
-    return `unknown field${extra.length > 1 ? 's' : ''} ${extra.map((k) => `"${k}"`).join(', ')} (${known})`;
-  }
-  return null;
-}
-
-const CONTROL = /[\u0000-\u001f\u007f]/;
-
-function idField(req: Record<string, unknown>, key: string): string | null {
-  const v = req[key];
-  if (typeof v !== 'string') return `"${key}" must be a string id, got ${describe(v)}`;
-  if (v.length === 0) return `"${key}" must not be empty`;
-  if (v.length > ID_MAX_LENGTH) return `"${key}" is ${v.length} characters long; ids have at most ${ID_MAX_LENGTH}`;
-  if (CONTROL.test(v)) return `"${key}" contains control characters`;
-  return null;
-}
-
-function withId(key: string): Check {
-  return (req) => objectWith(req, [key]) ?? idField(req as Record<string, unknown>, key);
-}
+export { ID_MAX_LENGTH };
 
 /** One hand-written check per channel; the mapped type makes a missing one a compile error. */
 const REQUEST_CHECKS: { readonly [C in Channel]: Check } = {
@@ -236,6 +206,12 @@ const REQUEST_CHECKS: { readonly [C in Channel]: Check } = {
   },
   'runs.events': withId('runId'),
   'events.get': withId('eventId'),
+  'events.view': withId('eventId'),
+  'reports.make': reportCheck,
+  'jobs.start': jobStartCheck,
+  'jobs.get': withId('jobId'),
+  'jobs.cancel': withId('jobId'),
+  'jobs.list': (req) => objectWith(req, []),
 };
 
 /** Every channel, in contract order. */
@@ -256,6 +232,12 @@ export const REQUEST_GUARDS: { readonly [C in Channel]: (req: unknown) => req is
   'runs.list': (req): req is RunsListRequest => isRequest('runs.list', req),
   'runs.events': (req): req is RunEventsRequest => isRequest('runs.events', req),
   'events.get': (req): req is EventGetRequest => isRequest('events.get', req),
+  'events.view': (req): req is EventGetRequest => isRequest('events.view', req),
+  'reports.make': (req): req is ReportRequest => isRequest('reports.make', req),
+  'jobs.start': (req): req is JobStartRequest => isRequest('jobs.start', req),
+  'jobs.get': (req): req is JobIdRequest => isRequest('jobs.get', req),
+  'jobs.cancel': (req): req is JobIdRequest => isRequest('jobs.cancel', req),
+  'jobs.list': (req): req is CatalogSummaryRequest => isRequest('jobs.list', req),
 };
 
 export type ValidatedRequest =
