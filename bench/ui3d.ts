@@ -6,8 +6,9 @@
  * while the drag lasts every animation frame is a drawn frame; the intervals between them are the
  * frame times a user sees. Measured with and without the half resolution used while dragging.
  *
- *   npm run bench:ui            (or npm run bench -- ui3d)
- *   UI3D_SECONDS=5 UI3D_CATALOG=30000 npm run bench:ui
+ *   npm run bench -- ui3d          (also part of npm run bench:ui once the list benchmark calls it)
+ *   node --import tsx bench/ui3d.ts
+ *   UI3D_SECONDS=5 UI3D_CATALOG=30000 npm run bench -- ui3d
  */
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
