@@ -8,7 +8,7 @@
  *
  *   npm run bench                       all cases
  *   npm run bench -- one fleet          only the named cases (start, load, prepare, one, fleet,
- *                                       all, memory, series, world)
+ *                                       all, memory, series, world, ui3d)
  *   BENCH_SIZE=10000 npm run bench -- one
  *
  * On a shared machine wall times move with the load: the load average is printed with them.
@@ -25,6 +25,7 @@ import { timeCommand } from './command.js';
 import { naiveGridSeconds, sgp4Rate } from './naive.js';
 import { benchDemoWorld } from './demoWorld.js';
 import { benchSeries } from './series.js';
+import { benchUi3d } from './ui3d.js';
 
 const SIZE = Number(process.env.BENCH_SIZE ?? 30_000);
 const DAY = 86_400_000;
@@ -54,7 +55,8 @@ function median(xs: number[]): number {
 async function main(): Promise<void> {
   if (want('series')) benchSeries();
   if (want('world')) benchDemoWorld();
-  if (cases.length > 0 && cases.every((c) => c === 'series' || c === 'world')) return;
+  if (want('ui3d')) await benchUi3d();
+  if (cases.length > 0 && cases.every((c) => c === 'series' || c === 'world' || c === 'ui3d')) return;
   console.log(`Keepclear bench: synthetic catalogue of ${SIZE} objects (seed 1) + the demo fleet; ${availableParallelism()} core(s); node ${process.version}; load average ${load()}`);
 
   if (want('start')) {
