@@ -102,6 +102,9 @@ export interface EventRow {
   readonly covarianceSource: string | null;
   /** decision tier (core/risk/tiers.ts); null before risk assessment */
   readonly tier: TierId | null;
+  /** the series (same conjunction across runs and messages) and its state; null where series are not recorded */
+  readonly seriesId?: string | null;
+  readonly seriesState?: string | null;
 }
 
 export interface RunEvents {
