@@ -4,12 +4,18 @@ import type { FlaggedObject, ScreeningSettings } from '../core/screening/types.j
 import type { ConjunctionEvent } from '../core/events/index.js';
 import type { RunRecord } from '../db/index.js';
 
-/** JSON of one event: the contract names of DESIGN.md ("JSON of screen and events") plus extras. */
-export function eventToJson(e: ConjunctionEvent): Record<string, unknown> {
+/**
+ * JSON of one event: the contract names of DESIGN.md ("JSON of screen and events") plus extras.
+ * `seriesId` (DESIGN.md "Series") is null only for an event not linked (a plan's hypothetical
+ * events); `seriesState` is given where the caller knows it.
+ */
+export function eventToJson(e: ConjunctionEvent, seriesStates?: ReadonlyMap<string, string>): Record<string, unknown> {
   const r = e.risk;
   return {
     // The fields the desktop bridge shows in its event table, converted the same way.
     ...eventRowOf(e),
+    seriesId: e.seriesId ?? null,
+    ...(seriesStates ? { seriesState: (e.seriesId && seriesStates.get(e.seriesId)) ?? null } : {}),
     hardBodyRadiusM: r ? r.hardBodyRadiusM : null,
     warnings: r ? [...r.warnings] : [],
     entry: e.entry === null ? null : toIso(e.entry),

@@ -12,7 +12,7 @@ export const TIER_SETTINGS_KEY = 'risk.tierThresholds';
  * Risk of screened encounters with what the database knows: each object's element-set history
  * (covariance source 2) or its newest element set (default table, source 3), and its
  * hard-body radius. Received CDM covariances (source 1) come in through the `cdm` argument of
- * assess() (app/cdmMatch.ts finds the message that matches an encounter).
+ * assess() (app/series.ts picks the message of the same series, app/cdmRisk.ts maps its covariances).
  */
 export class RiskContext {
   private readonly history = new Map<string, ElementSet[]>();

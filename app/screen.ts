@@ -7,27 +7,34 @@ import {
   catalogFingerprint,
   createRun,
   finishRun,
+  eventsOfRun,
   getRun,
   inTransaction,
   latestElementSets,
-  mergeEventExtra,
+  setRunDataAt,
   type KeepclearDb,
   type RunRecord,
-  type StoredCdm,
 } from '../db/index.js';
-import { matchingCdm } from './cdmMatch.js';
 import { RiskContext } from './risk.js';
+import { linkRun, type LinkOutcome } from './series.js';
 
 export interface ScreenRequest {
   readonly settings: ScreeningSettings;
   readonly workers?: number;
   readonly onProgress?: (done: number, total: number) => void;
   readonly signal?: AbortSignal;
+  /**
+   * the time the run's data stands for (default: now). A replay of older weekly runs (the demo)
+   * sets it, so series order and date the runs as they happened.
+   */
+  readonly dataAt?: Instant;
 }
 
 export interface ScreenResult {
   readonly run: RunRecord;
+  /** as stored: with risk and series id */
   readonly events: ConjunctionEvent[];
+  readonly linked: LinkOutcome;
 }
 
 /**
@@ -59,26 +66,23 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
     finishRun(db, runId, { status: 'failed', wallMs: 0, flagged: [], events: [] });
     throw err;
   }
-  // Covariance precedence: a received message about the same conjunction comes first, then the
-  // object's element-set history, then the default table (DESIGN.md risk requirements).
+  // Covariance precedence: the object's element-set history, then the default table; a received
+  // message of the same series comes first and is applied while linking (app/series.ts), since
+  // which message is "the same conjunction" is the series rule's answer.
   const risk = new RiskContext(db);
-  const cache = new Map<string, StoredCdm[]>();
-  const matches = outcome.encounters.map((e) => matchingCdm(db, e, cache));
-  const events = outcome.encounters.map((e, i) => ({ ...e, risk: risk.assess(e, matches[i] ?? undefined) }));
-  const stored = inTransaction(db, () => {
-    const evs = finishRun(db, runId, {
+  const events = outcome.encounters.map((e) => ({ ...e, risk: risk.assess(e) }));
+  const linked = inTransaction(db, () => {
+    if (req.dataAt !== undefined) setRunDataAt(db, runId, req.dataAt);
+    finishRun(db, runId, {
       status: outcome.cancelled ? 'cancelled' : 'done',
       wallMs: outcome.wallMs,
       flagged: outcome.flagged,
       events,
     });
-    evs.forEach((ev, i) => {
-      const m = matches[i];
-      if (m) mergeEventExtra(db, ev.id, { cdmId: m.cdm.id, cdmEventId: m.cdm.eventId, reportedPc: m.cdm.reportedPc });
-    });
-    return evs;
+    // In the same transaction: nobody sees the run's events without their series.
+    return linkRun(db, runId);
   });
-  return { run: getRun(db, runId)!, events: stored };
+  return { run: getRun(db, runId)!, events: eventsOfRun(db, runId), linked };
 }
 
 export const daysAfter = (start: Instant, days: number): Instant => (start + days * 86_400_000) as Instant;

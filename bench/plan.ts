@@ -10,10 +10,8 @@ import { buildDemoScenario } from '../core/synthetic/demo.js';
 import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import { planAvoidance, dragFromBstar, closestApproachNear, type PlanResult } from '../core/manoeuvre/index.js';
 import { assessEncounter } from '../core/risk/assess.js';
-import { ScreeningSession, objectFromElements, type ScreeningObject } from '../core/screening/engine.js';
-import { gridStepMs } from '../core/screening/primaryGrid.js';
+import { rescreenTrajectory } from '../app/plan/rescreen.js';
 import type { Encounter } from '../core/events/index.js';
-import type { Instant } from '../core/time/instant.js';
 
 const rescreen = process.argv.includes('rescreen');
 const scenario = buildDemoScenario({ catalogSize: rescreen ? 30_000 : 0 });
@@ -59,16 +57,14 @@ timed('miss ≥ 1 km, R/T/N + best, 20 lead times', () => planAvoidance({ ...bas
 if (rescreen) {
   const traj = plan.manoeuvredTrajectory!;
   const start = plan.proposal!.burnTime;
-  const session = new ScreeningSession({ start, end: scenario.end, volume: { kind: 'sphere', radiusKm: 5 } });
-  const p: ScreeningObject = { id: pes.objectId, trajectory: traj, epoch: pes.epoch, periodMin: periodS / 60, gridStepMs: gridStepMs(pes.meanMotion, pes.eccentricity), vMaxKmS: 8 };
+  const args = { primarySet: pes, trajectory: traj, catalogue: scenario.catalog, start, end: scenario.end, volume: { kind: 'sphere', radiusKm: 5 } } as const;
+  await rescreenTrajectory(args); // warm-up
   const c0 = process.cpuUsage(), t0 = performance.now();
-  const grid = session.grid(p)!;
-  const found: Encounter[] = [];
-  for (const es of scenario.catalog) found.push(...session.screenPair(p, grid, objectFromElements(es)));
+  const r = await rescreenTrajectory(args);
   const c = process.cpuUsage(c0);
   console.log(
-    `re-screen of the manoeuvred primary, ${scenario.catalog.length} objects, ${((scenario.end - start) / 86_400_000).toFixed(1)} days, one thread: ` +
-      `wall ${(performance.now() - t0).toFixed(0)} ms, CPU ${((c.user + c.system) / 1000).toFixed(0)} ms, ${found.length} approaches within 5 km`,
+    `re-screen of the manoeuvred primary (app/plan/rescreen.ts), ${r.objects} objects (${r.radiusPruned} dismissed by radius bands), ` +
+      `${((scenario.end - start) / 86_400_000).toFixed(1)} days, one thread: wall ${(performance.now() - t0).toFixed(0)} ms, ` +
+      `CPU ${((c.user + c.system) / 1000).toFixed(0)} ms, ${r.encounters.length} approaches within 5 km`,
   );
-  for (const e of found) console.log(`  ${e.secondary} ${new Date(e.tca).toISOString()} ${e.missKm.toFixed(3)} km`);
 }

@@ -6,7 +6,7 @@ import type { KeepclearDb } from './connection.js';
 /** An encounter as handed over by screening; a risk may already be attached. */
 export type NewEvent = Encounter & { readonly risk?: RiskAssessment | null };
 
-interface EventRow {
+export interface EventRow {
   id: string;
   run_id: string;
   seq: number;
@@ -36,6 +36,8 @@ interface EventRow {
   /** RiskDetail as JSON (schema v2); NULL for events stored before, or without a plane */
   risk_detail_json: string | null;
   extra_json: string;
+  /** schema v4; NULL until the linking service has seen the event */
+  series_id?: string | null;
 }
 
 function riskFromRow(r: EventRow): RiskAssessment | null {
@@ -52,7 +54,8 @@ function riskFromRow(r: EventRow): RiskAssessment | null {
   };
 }
 
-const fromRow = (r: EventRow): ConjunctionEvent => ({
+/** A stored row as an event (exported for db/series.ts, which reads events joined with runs). */
+export const eventFromRow = (r: EventRow): ConjunctionEvent => ({
   id: r.id,
   runId: r.run_id,
   primary: r.primary_id,
@@ -69,6 +72,8 @@ const fromRow = (r: EventRow): ConjunctionEvent => ({
   primaryEpoch: instantFromMs(r.primary_epoch_ms),
   secondaryEpoch: instantFromMs(r.secondary_epoch_ms),
   risk: riskFromRow(r),
+  // only once linked: events read back compare equal to what was stored
+  ...(r.series_id ? { seriesId: r.series_id } : {}),
 });
 
 const riskParams = (risk: RiskAssessment | null | undefined): unknown[] =>
@@ -145,12 +150,12 @@ export function insertEvents(db: KeepclearDb, runId: string, events: readonly Ne
 /** The events of one run, by TCA. */
 export function eventsOfRun(db: KeepclearDb, runId: string): ConjunctionEvent[] {
   const rows = db.stmt('SELECT * FROM events WHERE run_id = ? ORDER BY tca_ms, seq').all(runId) as EventRow[];
-  return rows.map(fromRow);
+  return rows.map(eventFromRow);
 }
 
 export function getEvent(db: KeepclearDb, id: string): ConjunctionEvent | null {
   const row = db.stmt('SELECT * FROM events WHERE id = ?').get(id) as EventRow | undefined;
-  return row ? fromRow(row) : null;
+  return row ? eventFromRow(row) : null;
 }
 
 /** Replaces the risk assessment of an event (a re-assessment, e.g. after a new CDM). */

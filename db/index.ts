@@ -12,7 +12,7 @@ export { currentOwner, processAlive, type RunOwner } from './owner.js';
 export { RUN_KINDS } from './schemaV3.js';
 export { defaultDbPath, chooseDbPath } from './paths.js';
 export { MIGRATIONS, SCHEMA_VERSION, migrate, schemaVersion, describeDatabase, type Migration } from './migrations.js';
-export { getObject, countObjects, setHardBodyRadius, type StoredObject } from './objects.js';
+export { getObject, countObjects, setHardBodyRadius, objectsWithDesignator, type StoredObject } from './objects.js';
 export {
   storeElementSets,
   latestElementSets,
@@ -37,6 +37,7 @@ export {
   listRuns,
   latestRun,
   markInterruptedRuns,
+  setRunDataAt,
   type RunKind,
   type RunStatus,
   type RunRecord,
@@ -62,4 +63,49 @@ export {
   type CdmFilter,
 } from './cdm.js';
 export { getSetting, putSetting, deleteSetting } from './settings.js';
+export { SERIES_STATES } from './schemaV4.js';
+export {
+  LINKED_RUN_KINDS,
+  sightingsOfPair,
+  sightingsOfRun,
+  unlinkedPairs,
+  setEventSeries,
+  putSeries,
+  deleteSeries,
+  getSeries,
+  listSeries,
+  eventsOfSeries,
+  seriesIdsOfEvents,
+  screeningCoverage,
+  newestDataAt,
+  seriesEventsOf,
+  type StoredSeries,
+  type SeriesFilter,
+  type SeriesEvent,
+} from './series.js';
+export {
+  storeEphemeris,
+  storeOemFile,
+  listEphemerides,
+  getEphemeris,
+  loadEphemeris,
+  recordRunEphemeris,
+  runEphemerides,
+  type EphemerisSummary,
+  type NewEphemeris,
+  type RunEphemeris,
+} from './ephemerides.js';
+export { getSpacecraft, setSpacecraft, listSpacecraft, type StoredSpacecraft } from './spacecraft.js';
+export {
+  storePlan,
+  getPlan,
+  latestPlanOfEvent,
+  plansOfEvent,
+  latestPlanSummaries,
+  type NewPlan,
+  type PlanStatus,
+  type PlanSummary,
+  type PlanTargetRecord,
+  type StoredPlan,
+} from './plans.js';
 export { newestElementEpochMs } from './catalogSummary.js';

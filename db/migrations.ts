@@ -2,6 +2,9 @@ import { KeepclearError } from '../core/errors.js';
 import type { KeepclearDb } from './connection.js';
 import { SCHEMA_V1 } from './schemaV1.js';
 import { SCHEMA_V3_RUNS } from './schemaV3.js';
+import { SCHEMA_V4_SERIES } from './schemaV4.js';
+import { SCHEMA_V5_EPHEMERIDES } from './schemaV5.js';
+import { SCHEMA_V6_PLANS } from './schemaV6.js';
 
 /** One schema step. `version` is the PRAGMA user_version the database has after it. */
 export interface Migration {
@@ -30,6 +33,21 @@ export const MIGRATIONS: readonly Migration[] = [
     name: 'kind of run as a column, owner process of a running run, status interrupted',
     up: (db) => db.sqlite.exec(SCHEMA_V3_RUNS),
     rebuildsTables: true,
+  },
+  {
+    version: 4,
+    name: 'series: data time of runs, series of events, series states',
+    up: (db) => db.sqlite.exec(SCHEMA_V4_SERIES),
+  },
+  {
+    version: 5,
+    name: 'owner ephemerides (OEM): messages, segments with packed nodes, the ephemeris each run used',
+    up: (db) => db.sqlite.exec(SCHEMA_V5_EPHEMERIDES),
+  },
+  {
+    version: 6,
+    name: 'spacecraft mass and Isp per owner object; manoeuvre plans kept with their event',
+    up: (db) => db.sqlite.exec(SCHEMA_V6_PLANS),
   },
 ];
 

@@ -81,3 +81,10 @@ export function setHardBodyRadius(db: KeepclearDb, ids: readonly string[], meter
   })();
   return changed;
 }
+
+/** Objects whose stored designator is `designator` (OMM form, e.g. "2026-100A"), for OBJECT_ID matching. */
+export function objectsWithDesignator(db: KeepclearDb, designator: string): { id: string; name: string | null }[] {
+  return db
+    .stmt('SELECT id, name FROM objects WHERE upper(intl_designator) = upper(?) ORDER BY id')
+    .all(designator.trim()) as { id: string; name: string | null }[];
+}

@@ -16,6 +16,11 @@ export interface RunRecord {
   readonly id: string;
   readonly kind: RunKind;
   readonly createdAt: Instant;
+  /**
+   * when the run's data was created (schema v4): a screening run's time, a received message's
+   * CREATION_DATE. Series order their events by it.
+   */
+  readonly dataAt: Instant;
   readonly settings: ScreeningSettings;
   /**
    * screening: catalogFingerprint() of the sets screened (tells whether two runs saw the same
@@ -46,6 +51,7 @@ interface RunRow {
   seq: number;
   kind: RunKind;
   created_at: number;
+  data_at: number | null;
   start_ms: number;
   end_ms: number;
   volume_json: string;
@@ -69,6 +75,7 @@ function fromRow(db: KeepclearDb, r: RunRow): RunRecord {
     id: r.id,
     kind: r.kind,
     createdAt: instantFromMs(r.created_at),
+    dataAt: instantFromMs(r.data_at ?? r.created_at),
     settings: {
       start: instantFromMs(r.start_ms),
       end: instantFromMs(r.end_ms),
@@ -102,15 +109,17 @@ export function createRun(
   return inTransaction(db, () => {
     const seq = (db.stmt('SELECT COALESCE(MAX(seq), 0) + 1 FROM runs').pluck().get() as number);
     const id = `R${seq}`;
+    const now = Date.now();
     db.stmt(
-      `INSERT INTO runs (id, seq, kind, created_at, start_ms, end_ms, volume_json, primaries_json,
+      `INSERT INTO runs (id, seq, kind, created_at, data_at, start_ms, end_ms, volume_json, primaries_json,
          catalog_fingerprint, object_count, status, owner_pid, owner_host)
-       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'running', ?, ?)`,
+       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'running', ?, ?)`,
     ).run(
       id,
       seq,
       kind,
-      Date.now(),
+      now,
+      now,
       settings.start,
       settings.end,
       JSON.stringify(settings.volume),
@@ -144,6 +153,16 @@ export function finishRun(db: KeepclearDb, runId: string, outcome: RunOutcome): 
     ).run(outcome.status, Date.now(), outcome.wallMs, events.length, outcome.flagged.length, runId);
     return events;
   });
+}
+
+/**
+ * Sets when a run's data was created (default: the run's own time): a received message's
+ * CREATION_DATE, or the time a replayed weekly run stands for (the demo).
+ */
+export function setRunDataAt(db: KeepclearDb, runId: string, dataAt: Instant): void {
+  if (!Number.isFinite(dataAt)) throw new KeepclearError('INTERNAL', `data time of run "${runId}" must be a finite time, got ${dataAt}`);
+  const changes = db.stmt('UPDATE runs SET data_at = ? WHERE id = ?').run(dataAt, runId).changes;
+  if (changes === 0) throw new KeepclearError('NOT_FOUND', `no run "${runId}"`);
 }
 
 export function getRun(db: KeepclearDb, id: string): RunRecord | null {

@@ -2,7 +2,7 @@
  * `keepclear --help` (issue 7 item 5): every option of every command with an example each, and
  * nothing heavy loaded to print it (DESIGN.md "Start-up counts"). The expected options are
  * written out here from DESIGN.md's CLI contract plus the documented extras (--workers, --size,
- * --all-events), so a command that loses an option from its help fails this test.
+ * --all-events, the attention options of screen for scheduled use), so a command that loses an option from its help fails this test.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
@@ -14,10 +14,14 @@ import { ROOT, runKeepclear, type Run } from './support/cli.js';
 
 const EXPECTED: Record<string, string[]> = {
   import: ['--db', '--hbr-m'],
-  screen: ['--catalog', '--primary', '--all', '--start', '--days', '--threshold-km', '--volume-rtn-km', '--db', '--json', '--workers', '--all-events'],
-  events: ['--db', '--run', '--json', '--all-events'],
+  screen: ['--catalog', '--primary', '--all', '--start', '--days', '--threshold-km', '--volume-rtn-km', '--db', '--json', '--workers', '--all-events',
+    '--attention-tier', '--attention-exit', '--attention-file'],
+  events: ['--db', '--run', '--series', '--json', '--all-events'],
   report: ['--run', '--event', '--out', '--db'],
+  export: ['--event', '--run', '--format', '--out', '--db'],
   demo: ['--out', '--size', '--workers', '--all-events'],
+  plan: ['--event', '--target-miss-km', '--target-pc', '--db', '--json', '--oem', '--opm'],
+  spacecraft: ['--id', '--mass-kg', '--isp-s', '--db', '--json'],
   serve: ['--db', '--port'],
 };
 

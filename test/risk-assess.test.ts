@@ -74,7 +74,7 @@ describe('assessEncounter: covariance precedence and Pc method', () => {
     const bad = cdmRtnFromLowerTriangle([100, 500, 100, 0, 0, 100, ...new Array<number>(15).fill(0)]);
     const a = assessEncounter(encounter, { primary: { cdmRtnM2: bad }, secondary: { regime: 'LEO' } });
     expect(a.pcMethod).toBe('max-pc (doubtful covariance)');
-    expect(a.warnings.join(' ')).toMatch(/indefinite/);
+    expect(a.warnings.join(' ')).toMatch(/covariance is not positive semi-definite/);
     expect(a.warnings.join(' ')).toMatch(/hard-body radius default/);
   });
 });

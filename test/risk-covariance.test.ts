@@ -5,7 +5,8 @@ import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import { cdmRtnFromLowerTriangle, covarianceFromCdm } from '../core/risk/covarianceCdm.js';
 import { defaultCovariance, regimeOf } from '../core/risk/covarianceDefault.js';
 import { covarianceFromHistory, GROWTH_FLOOR_DAYS } from '../core/risk/covarianceHistory.js';
-import { checkCovariance } from '../core/risk/covariancePsd.js';
+import { judgeCovariance } from '../core/risk/covariancePsd.js';
+import { symmetricEigen } from '../core/math/linalg.js';
 import { DEFAULT_COVARIANCE_PROVENANCE, DEFAULT_COVARIANCE_TABLE } from '../core/risk/defaultCovarianceTable.js';
 import { MS_PER_DAY, parseIso, type Instant } from '../core/time/instant.js';
 
@@ -13,19 +14,37 @@ const close = (a: number[][], b: number[][], tol: number): void => {
   for (let i = 0; i < a.length; i++) for (let j = 0; j < a.length; j++) expect(Math.abs(a[i]![j]! - b[i]![j]!)).toBeLessThan(tol);
 };
 
-describe('PSD repair (Higham 1988: clip negative eigenvalues)', () => {
-  // Q is a rotation; A = Q·diag(4, 1, −1e-5)·Qᵀ; nearest PSD is Q·diag(4, 1, 0)·Qᵀ (closed form).
+describe('one PSD policy (core/risk/covariancePsd.ts) for every covariance source', () => {
+  // Q is a rotation; A = Q·diag(4, 1, λ3)·Qᵀ has eigenvalues 4, 1, λ3 by construction.
   const t = 0.6, c = Math.cos(t), s = Math.sin(t);
   const q = [[c, -s, 0], [s * 0.6, c * 0.6, -0.8], [s * 0.8, c * 0.8, 0.6]];
   const build = (l3: number) => multiply(multiply(q, [[4, 0, 0], [0, 1, 0], [0, 0, l3]]), transpose(q));
-  it('slightly indefinite → repaired to the closed-form nearest PSD', () => {
-    const r = checkCovariance(build(-1e-5), 'test');
+  it('slightly indefinite (rounding-sized) → repaired to a PSD matrix next to it (Higham 1988 on the correlation-scaled matrix)', () => {
+    const r = judgeCovariance(build(-1e-5), 'test');
     expect(r.status).toBe('repaired');
-    close(r.matrix, build(0), 1e-12);
+    expect(symmetricEigen(r.usable!).values[0]!).toBeGreaterThan(-1e-12);
+    close(r.usable!, build(-1e-5), 1e-4); // the clipped eigenvalue was 1e-5
+    expect(r.note).toMatch(/repaired to nearest PSD/);
   });
-  it('clearly indefinite → doubtful; a proper covariance → ok', () => {
-    expect(checkCovariance(build(-0.1), 'test').status).toBe('doubtful');
-    expect(checkCovariance(build(0.5), 'test').status).toBe('ok');
+  it('clearly indefinite → refused with the eigenvalue named; a proper covariance → used as is', () => {
+    const bad = judgeCovariance(build(-0.1), 'primary history');
+    expect(bad.status).toBe('not-psd');
+    expect(bad.usable).toBeNull();
+    expect(bad.note).toMatch(/primary history 3×3 covariance is not positive semi-definite: smallest eigenvalue -/);
+    expect(judgeCovariance(build(0.5), 'test')).toEqual({ status: 'psd', usable: build(0.5) });
+  });
+  it('an all-zero position block is refused, not computed with', () => {
+    const z = Array.from({ length: 6 }, (_, i) => Array.from({ length: 6 }, (_, j) => (i === j && i >= 3 ? 1e-4 : 0)));
+    const v = judgeCovariance(z, 'OBJECT2');
+    expect(v.status).toBe('zero');
+    expect(v.usable).toBeNull();
+    expect(v.note).toMatch(/OBJECT2 covariance has an all-zero position block/);
+  });
+  it('non-finite or asymmetric → refused', () => {
+    expect(judgeCovariance([[1, 0, 0], [0, NaN, 0], [0, 0, 1]], 'x').status).toBe('not-psd');
+    const asym = judgeCovariance([[4, 1, 0], [0.5, 4, 0], [0, 0, 4]], 'x');
+    expect(asym.status).toBe('not-psd');
+    expect(asym.note).toMatch(/not symmetric/);
   });
 });
 
@@ -53,8 +72,24 @@ describe('CDM covariance (CCSDS 508.0-B-1 lower triangle, RTN) → inertial', ()
 });
 
 describe('default covariance table', () => {
-  it('is labelled with its provenance', () => {
-    expect(DEFAULT_COVARIANCE_PROVENANCE).toMatch(/common practice \/ from memory/);
+  it('is labelled with its provenance, value by value', () => {
+    expect(DEFAULT_COVARIANCE_PROVENANCE).toMatch(/Levit & Marshall 2011.*Riesing 2015.*from memory/);
+    for (const r of ['MEO', 'GEO', 'HEO'] as const) expect(DEFAULT_COVARIANCE_TABLE[r].provenance).toMatch(/^from memory/);
+  });
+  it('LEO-low along-track σ against Riesing 2015 (SSC15-VIII-5, abstract; test/authorities/tle-accuracy)', () => {
+    // "1-σ in-track propagation error after one day ranges from 10-30 km ..., two-day 20-70 km"
+    const one = defaultCovariance('LEO-low', 1).sigmaM[1], two = defaultCovariance('LEO-low', 2).sigmaM[1];
+    expect(one).toBeGreaterThanOrEqual(10_000);
+    expect(one).toBeLessThanOrEqual(30_000);
+    expect(two).toBeGreaterThanOrEqual(20_000);
+    expect(two).toBeLessThanOrEqual(70_000);
+  });
+  it('LEO along-track growth against Levit & Marshall 2011 (Adv. Space Res. 47, abstract)', () => {
+    // "range error ... increases at a typical rate of 100 meters per day, approximately a 10-fold
+    // improvement over individual TLE's propagated with ... SGP4": a single TLE ≈ 1 km/day.
+    const growth = defaultCovariance('LEO', 11).sigmaM[1] - defaultCovariance('LEO', 10).sigmaM[1];
+    expect(growth / (10 * 100)).toBeGreaterThan(0.9);
+    expect(growth / (10 * 100)).toBeLessThan(1.1);
   });
   it('regimes by mean motion and eccentricity', () => {
     expect(regimeOf({ meanMotion: 15.5, eccentricity: 0.0005 })).toBe('LEO-low'); // ~420 km

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { multiply, transpose } from '../core/math/linalg.js';
 import { encounterPlane } from '../core/risk/encounterPlane.js';
-import { inertialToRtnCov, rtnBasis, rtnToInertialCov } from '../core/risk/frames.js';
+import { inertialToRtnCov, inertialToRtnCov6, rtnBasis, rtnToInertialCov, rtnToInertialCov6 } from '../core/risk/frames.js';
 import { pc2dReference } from '../core/risk/pc2dReference.js';
 import { pcMonteCarlo3d } from '../core/risk/pcMonteCarlo.js';
 import { checkShortEncounter } from '../core/risk/shortEncounter.js';
@@ -31,7 +31,8 @@ describe('RTN frame (DESIGN.md: R = r/|r|, N = r×v/|r×v|, T = N×R)', () => {
     const back = inertialToRtnCov(rtnToInertialCov(c3, b), b);
     for (let r = 0; r < 3; r++) for (let c = 0; c < 3; c++) expect(Math.abs(back[r]![c]! - c3[r]![c]!)).toBeLessThan(1e-10);
     const c6 = Array.from({ length: 6 }, (_, r) => Array.from({ length: 6 }, (_, c) => (r === c ? 10 + r : 0.1)));
-    const back6 = inertialToRtnCov(rtnToInertialCov(c6, b), b);
+    const r: [number, number, number] = [-4200.5, 5100.2, 1800.7], v: [number, number, number] = [-3.1, -4.4, 5.2];
+    const back6 = inertialToRtnCov6(rtnToInertialCov6(c6, r, v), r, v);
     for (let r = 0; r < 6; r++) for (let c = 0; c < 6; c++) expect(Math.abs(back6[r]![c]! - c6[r]![c]!)).toBeLessThan(1e-12);
   });
 });

@@ -1,23 +1,21 @@
 import { KeepclearError, type Rejection } from '../../core/errors.js';
 import { parseCdmFile, hardBodyRadiusFromAreaPc, type CdmObject } from '../../core/formats/cdm/index.js';
 import { encounterFromCdm } from '../../core/events/fromCdm.js';
-import type { ConjunctionEvent, Encounter } from '../../core/events/index.js';
 import type { Instant } from '../../core/time/instant.js';
 import {
   createRun,
-  eventsOfRun,
   finishRun,
+  getEvent,
   inTransaction,
-  latestRun,
   linkCdmToEvent,
   mergeEventExtra,
+  setRunDataAt,
   storeCdmFile,
-  updateEventRisk,
   type ImportCounts,
   type KeepclearDb,
 } from '../../db/index.js';
-import { matchingCdm, SAME_CONJUNCTION_MS } from '../cdmMatch.js';
 import { RiskContext } from '../risk.js';
+import { linkRun } from '../series.js';
 
 export interface CdmImportOutcome {
   readonly counts: ImportCounts;
@@ -25,12 +23,15 @@ export interface CdmImportOutcome {
   /** what the reader repaired or flagged (e.g. a covariance not PSD), with file:line */
   readonly repairs: readonly string[];
   readonly eventId: string | null;
+  /** the series the message's event joined (the same conjunction seen by runs or other messages) */
+  readonly seriesId: string | null;
 }
 
 /**
  * Imports one CDM file in ONE transaction: the message, a run holding its event with
- * Keepclear's own Pc (the message's COLLISION_PROBABILITY is kept apart as "reported"), and a
- * link to the screened event of the same pair and TCA, when there is one. A covariance that is
+ * Keepclear's own Pc (the message's COLLISION_PROBABILITY is kept apart as "reported"), dated by
+ * its CREATION_DATE, and the event linked into its series (app/series.ts: screened events of the
+ * same series created after the message take its covariance). A covariance that is
  * not positive semi-definite beyond rounding is kept flagged, and Pc falls back to maximum Pc.
  */
 export function importCdmFile(
@@ -95,10 +96,12 @@ export function importCdmFile(
       },
     ], []);
     const counts = { imported: stored.imported, updated: 0, unchanged: stored.unchanged, rejected: 0 };
-    if (stored.imported === 0) return { counts, rejections: [], repairs: notes, eventId: null };
+    if (stored.imported === 0) return { counts, rejections: [], repairs: notes, eventId: null, seriesId: null };
     const start = rv.startScreenPeriod ?? enc.tca;
     const end = rv.stopScreenPeriod && rv.stopScreenPeriod > start ? rv.stopScreenPeriod : ((start + 1) as Instant);
     const runId = createRun(db, { start, end, volume, primaries: [enc.primary] }, sha256, 2, 'cdm');
+    // The message's data dates from its creation, not from when it reached us.
+    setRunDataAt(db, runId, cdm.header.creationDate);
     const [event] = finishRun(db, runId, { status: 'done', wallMs: 0, flagged: [], events: [{ ...enc, risk: riskWithNotes }] });
     const eventId = event!.id;
     linkCdmToEvent(db, stored.ids[0]!, eventId);
@@ -111,27 +114,9 @@ export function importCdmFile(
       originator: cdm.header.originator,
       messageId: cdm.header.messageId,
     };
-    const screened = latestScreeningEvent(db, enc);
-    if (screened) {
-      extra.matchedEventId = screened.id;
-      // The screened event's risk now takes the message's covariance (first in precedence).
-      const inputs = matchingCdm(db, screened);
-      if (inputs) updateEventRisk(db, screened.id, new RiskContext(db).assess(screened, inputs));
-      mergeEventExtra(db, screened.id, { cdmEventId: eventId, cdmId: stored.ids[0], reportedPc: cdm.relative.collisionProbability ?? null });
-    }
     mergeEventExtra(db, eventId, extra);
-    return { counts, rejections: [], repairs: notes, eventId };
+    linkRun(db, runId);
+    const seriesId = getEvent(db, eventId)?.seriesId ?? null;
+    return { counts, rejections: [], repairs: notes, eventId, seriesId };
   });
-}
-
-/** The event of the newest screening run with the same pair (either order) and TCA. */
-function latestScreeningEvent(db: KeepclearDb, e: Encounter): ConjunctionEvent | null {
-  const run = latestRun(db, 'done', ['screening', 'merge']);
-  if (!run) return null;
-  const hit = eventsOfRun(db, run.id).find(
-    (x) =>
-      ((x.primary === e.primary && x.secondary === e.secondary) || (x.primary === e.secondary && x.secondary === e.primary)) &&
-      Math.abs(x.tca - e.tca) <= SAME_CONJUNCTION_MS,
-  );
-  return hit ?? null;
 }

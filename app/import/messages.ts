@@ -2,6 +2,7 @@ import { KeepclearError } from '../../core/errors.js';
 import type { ElementFileFormat } from '../../core/formats/detect.js';
 import type { KeepclearDb } from '../../db/index.js';
 import { importCdmFile } from './cdm.js';
+import { importOemFile } from './oem.js';
 import type { FileOutcome } from './outcome.js';
 
 export type MessageFormat = Extract<ElementFileFormat, 'CDM-KVN' | 'CDM-XML' | 'OEM-KVN' | 'OEM-XML'>;
@@ -31,14 +32,11 @@ export function importMessageFile(
       throw err;
     }
   }
-  return {
-    ok: false,
-    file,
-    format,
-    error: new KeepclearError(
-      'FORMAT_UNKNOWN',
-      'OEM owner ephemerides are not imported yet (planned); import TLE, OMM or CDM files',
-      { file, line: 1 },
-    ),
-  };
+  try {
+    const r = importOemFile(db, file, bytes, sha256, format, hbrM);
+    return { ok: true, file, format, counts: r.counts, rejections: r.rejections, notes: r.notes };
+  } catch (err) {
+    if (err instanceof KeepclearError && !err.code.startsWith('DATABASE_')) return { ok: false, file, format, error: err };
+    throw err;
+  }
 }

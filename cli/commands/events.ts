@@ -5,32 +5,53 @@ import { allEventsOption, dbOption, jsonOption } from '../options.js';
 interface EventsOptions {
   db?: string;
   run?: string;
+  series?: string;
   json?: string;
   allEvents?: boolean;
 }
 
 /**
- * `keepclear events [--db FILE] [--run ID] [--json FILE|-]`: the events of one run, or by
- * default those of the newest screening run plus every event made from a received CDM.
+ * `keepclear events [--db FILE] [--run ID | --series ID] [--json FILE|-]`: the events of one run,
+ * of one series (in the order their data was created), or by default those of the newest
+ * screening run plus every event made from a received CDM.
  */
 export default defineCommand<EventsOptions>({
   name: 'events',
-  summary: 'show stored events: the newest screening run and received CDMs, or one run',
-  synopsis: '[--db FILE] [--run ID] [--json FILE|-] [--all-events]',
+  summary: 'show stored events: the newest screening run and received CDMs, one run, or one series',
+  synopsis: '[--db FILE] [--run ID | --series ID] [--json FILE|-] [--all-events]',
   options: [
     dbOption,
     { flags: '--run <ID>', description: 'the events of this run (R12); default: the newest screening run and every received CDM' },
+    {
+      flags: '--series <ID>',
+      description: 'the events of this series (S-R12-3: the same conjunction across runs and messages), oldest data first, with its state and trend',
+    },
     jsonOption,
     allEventsOption,
   ],
-  examples: ['keepclear events', 'keepclear events --run R12 --json -'],
+  examples: ['keepclear events', 'keepclear events --run R12 --json -', 'keepclear events --series S-R12-3'],
   async run(_args, o) {
-    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns } = await import('../../db/index.js');
+    if (o.run !== undefined && o.series !== undefined) {
+      throw new KeepclearError('BAD_ARGUMENT', 'give either --run or --series, not both');
+    }
+    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns, latestPlanSummaries } = await import('../../db/index.js');
+    const { planCell, planSummaryToJson } = await import('../../app/plan/summary.js');
     const { eventToJson, runToJson } = await import('../../app/eventJson.js');
+    const { ensureLinked, seriesView, countByState } = await import('../../app/series.js');
+    const { seriesStatesOf, seriesToJson } = await import('../../app/seriesJson.js');
     const { eventSummary } = await import('../present/events.js');
+    const { seriesCounts, seriesSummary } = await import('../present/series.js');
     const { writeJsonWithCaution } = await import('../present/json.js');
     const db = openDatabase(o.db ?? defaultDbPath());
     try {
+      linkIfWritable(db, ensureLinked);
+      if (o.series !== undefined) {
+        const view = seriesView(db, o.series);
+        if (!view) throw new KeepclearError('NOT_FOUND', `no series "${o.series}"; every event's seriesId is in keepclear events --json -`);
+        if (o.json !== undefined) writeJsonWithCaution(o.json, seriesToJson(db, view));
+        if (o.json !== '-') process.stdout.write(seriesSummary(view));
+        return 0;
+      }
       let run;
       let events;
       if (o.run !== undefined) {
@@ -42,16 +63,26 @@ export default defineCommand<EventsOptions>({
         const fromCdm = listRuns(db, 10_000, ['cdm']).filter((r) => r.status === 'done').flatMap((r) => eventsOfRun(db, r.id));
         events = [...(run ? eventsOfRun(db, run.id) : []), ...fromCdm].sort((a, b) => a.tca - b.tca);
       }
+      const states = seriesStatesOf(db, events);
+      const plans = latestPlanSummaries(db, events.map((e) => e.id));
       if (o.json !== undefined) {
         writeJsonWithCaution(o.json, {
           run: run ? runToJson(run) : null,
           // Extras (e.g. a message's reported Pc, kept apart from Keepclear's own) ride along.
-          events: events.map((e) => ({ ...eventToJson(e), extra: getEventExtra(db, e.id) ?? {} })),
+          // plan: the event's newest manoeuvre plan (keepclear plan), null when none.
+          events: events.map((e) => {
+            const p = plans.get(e.id);
+            return { ...eventToJson(e, states), extra: getEventExtra(db, e.id) ?? {}, plan: p ? planSummaryToJson(p) : null };
+          }),
         });
       }
       if (o.json !== '-') {
         if (run) process.stdout.write(`run ${run.id} (${run.kind}, ${run.status}): ${run.eventCount ?? 0} event(s)\n`);
-        process.stdout.write(eventSummary(events, o.allEvents === true));
+        const ids = new Set(events.flatMap((e) => (e.seriesId ? [e.seriesId] : [])));
+        const more = ids.size > 0 ? [`${seriesCounts(countByState(db, ids))} (keepclear events --series ID shows one)`] : [];
+        const cells = new Map([...plans].map(([id, p]) => [id, planCell(p)]));
+        process.stdout.write(eventSummary(events, o.allEvents === true, more, cells));
+        if (plans.size > 0) process.stdout.write(`${plans.size} event(s) with a manoeuvre plan; keepclear report --event ID shows it.\n`);
       }
       return 0;
     } finally {
@@ -59,3 +90,15 @@ export default defineCommand<EventsOptions>({
     }
   },
 });
+
+/**
+ * Events stored before series existed are linked on first read; a database that cannot be
+ * written (read-only file, held lock) is still shown, without the missing series ids.
+ */
+function linkIfWritable(db: import('../../db/index.js').KeepclearDb, link: (d: typeof db) => unknown): void {
+  try {
+    link(db);
+  } catch (err) {
+    if (!(err instanceof KeepclearError && err.code.startsWith('DATABASE_'))) throw err;
+  }
+}

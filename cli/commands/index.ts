@@ -7,10 +7,15 @@
 import type { CommandSpec } from '../command.js';
 import demo from './demo.js';
 import events from './events.js';
+import exportCommand from './export.js';
 import importCommand from './import.js';
+import plan from './plan.js';
 import report from './report.js';
 import screen from './screen.js';
 import serve from './serve.js';
+import spacecraft from './spacecraft.js';
 
 // Each spec is typed by its own options; the registry only needs to hand them to commander.
-export const COMMANDS: readonly CommandSpec<never>[] = [importCommand, screen, events, report, demo, serve];
+export const COMMANDS: readonly CommandSpec<never>[] = [
+  importCommand, screen, events, report, exportCommand, plan, spacecraft, demo, serve,
+];

@@ -21,7 +21,25 @@ interface ScreenOptions {
   json?: string;
   workers?: number;
   allEvents?: boolean;
+  attentionTier?: TierId;
+  attentionExit?: number;
+  attentionFile?: string;
 }
+
+/** Tier ids a user may name for --attention-tier (core/risk/tiers.ts). */
+const TIER_IDS = ['plan', 'monitor', 'routine'] as const;
+type TierId = (typeof TIER_IDS)[number];
+/** Default attention tier: anything above the lowest tier, as the terminal's "Needing attention". */
+const DEFAULT_ATTENTION_TIER: TierId = 'monitor';
+
+const attentionTier: ValueParser<TierId> = (text, previous) => {
+  once('attention-tier', previous);
+  const t = text.trim().toLowerCase();
+  if (!(TIER_IDS as readonly string[]).includes(t)) {
+    throw new KeepclearError('BAD_ARGUMENT', `--attention-tier must be one of ${TIER_IDS.join(', ')}, got "${text}"`);
+  }
+  return t as TierId;
+};
 
 const once = (name: string, previous: unknown): void => {
   if (previous !== undefined) throw new KeepclearError('BAD_ARGUMENT', `option --${name} given twice`);
@@ -96,10 +114,26 @@ export default defineCommand<ScreenOptions>({
     jsonOption,
     workersOption,
     allEventsOption,
+    {
+      flags: '--attention-tier <TIER>',
+      description: `for scheduled jobs: the tier (plan, monitor, routine) at or above which an event needs attention (default: ${DEFAULT_ATTENTION_TIER})`,
+      parse: attentionTier,
+    },
+    {
+      flags: '--attention-exit <CODE>',
+      description: 'exit with CODE (3..125) when the run holds an event at or above --attention-tier (opt-in; failures still exit 1)',
+      // 0, 1 and 2 mean success, failure and bad arguments (DESIGN.md); above 125 the shell reserves
+      parse: numberIn('attention-exit', (x) => Number.isInteger(x) && x >= 3 && x <= 125, 'a whole number 3..125'),
+    },
+    {
+      flags: '--attention-file <PATH>',
+      description: 'write a small JSON flag file when the run needs attention (events, series, tier); remove it when it does not',
+    },
   ],
   examples: [
     'keepclear screen --catalog catalog.json --primary 80001,80003 --start 2026-12-07T00:00:00Z --days 7',
     'keepclear screen --all --days 1 --threshold-km 5 --json run.json',
+    'keepclear screen --catalog week.json --primary 100001,100002 --attention-tier plan --attention-exit 10 --attention-file /var/lib/keepclear/ATTENTION.json',
   ],
   async run(_args, o) {
     const settings = settingsFrom(o, Date.now());
@@ -107,6 +141,10 @@ export default defineCommand<ScreenOptions>({
     const { importFiles } = await import('../../app/import/index.js');
     const { screenAndStore } = await import('../../app/screen.js');
     const { eventToJson, runToJson } = await import('../../app/eventJson.js');
+    const { seriesStatesOf } = await import('../../app/seriesJson.js');
+    const { countByState } = await import('../../app/series.js');
+    const { attentionJson, attentionOf, updateAttentionFile } = await import('../../app/attention.js');
+    const { seriesCounts } = await import('../present/series.js');
     const { presentFileOutcome, presentImportTotal } = await import('../present/imports.js');
     const { eventSummary } = await import('../present/events.js');
     const { writeJsonWithCaution } = await import('../present/json.js');
@@ -136,13 +174,33 @@ export default defineCommand<ScreenOptions>({
       bar.stop();
       for (const f of run.flagged) process.stderr.write(`keepclear: flagged ${f.id}: ${f.reason}\n`);
       if (run.status === 'cancelled') process.stderr.write('keepclear: screening cancelled; partial results stored\n');
-      if (o.json !== undefined) writeJsonWithCaution(o.json, { run: runToJson(run), events: events.map(eventToJson) });
+      const states = seriesStatesOf(db, events);
+      if (o.json !== undefined) writeJsonWithCaution(o.json, { run: runToJson(run), events: events.map((e) => eventToJson(e, states)) });
+      const attention = attentionOf(events, o.attentionTier ?? DEFAULT_ATTENTION_TIER);
+      if (o.attentionFile !== undefined) {
+        // A cancelled run saw only part of the window: it can raise the flag, never clear it.
+        const doc = attentionJson(run, attention, states, Date.now() as Instant);
+        if (attention.needed || run.status === 'done') updateAttentionFile(o.attentionFile, doc);
+      }
       if (!jsonOnly) {
         const seconds = ((run.wallMs ?? 0) / 1000).toFixed(2);
         process.stdout.write(`run ${run.id}: ${events.length} event(s), ${run.objectCount} objects, ${seconds} s\n`);
-        process.stdout.write(eventSummary(events, o.allEvents === true));
+        const ids = new Set(events.flatMap((e) => (e.seriesId ? [e.seriesId] : [])));
+        const more = ids.size > 0 ? [`${seriesCounts(countByState(db, ids))} (keepclear events --series ID shows one)`] : [];
+        if (o.attentionExit !== undefined || o.attentionFile !== undefined) {
+          more.push(
+            attention.needed
+              ? `Attention: ${attention.events.length} event(s) at or above ${attention.tier}${o.attentionFile ? ` (flag file ${o.attentionFile})` : ''}.`
+              : `Attention: no event at or above ${attention.tier}.`,
+          );
+        }
+        process.stdout.write(eventSummary(events, o.allEvents === true, more));
       }
-      return run.status === 'cancelled' ? 1 : exit;
+      if (run.status === 'cancelled') return 1;
+      // Opt-in: the attention code wins over exit 1 for rejected catalogue records (reported on
+      // stderr), so that a few bad records in a weekly file cannot hide an approach.
+      if (o.attentionExit !== undefined && attention.needed) return o.attentionExit;
+      return exit;
     } finally {
       bar.stop();
       process.off('SIGINT', onSigint);

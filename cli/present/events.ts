@@ -38,9 +38,13 @@ export function tierCounts(events: readonly ConjunctionEvent[]): string {
   return parts.join(' · ');
 }
 
-/** A plain-text table of events. */
-export function eventTable(events: readonly ConjunctionEvent[]): string {
-  const head = ['event', 'TCA (UTC)', 'primary', 'secondary', 'miss km', 'v_rel km/s', 'Pc', 'tier', 'covariance'];
+/**
+ * A plain-text table of events. `plans` (event id → a short text of its newest manoeuvre plan)
+ * adds a "plan" column when any listed event has one.
+ */
+export function eventTable(events: readonly ConjunctionEvent[], plans?: ReadonlyMap<string, string>): string {
+  const withPlans = plans !== undefined && events.some((e) => plans.has(e.id));
+  const head = ['event', 'TCA (UTC)', 'primary', 'secondary', 'miss km', 'v_rel km/s', 'Pc', 'tier', 'covariance', ...(withPlans ? ['plan (Δv → miss)'] : [])];
   const rows = events.map((e) => [
     e.id,
     toIso(e.tca),
@@ -51,6 +55,7 @@ export function eventTable(events: readonly ConjunctionEvent[]): string {
     formatPc(e.risk?.pc),
     e.risk ? labelOf(e.risk.tier) : '—',
     e.risk?.covarianceSource ?? '—',
+    ...(withPlans ? [plans!.get(e.id) ?? ''] : []),
   ]);
   const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
   const line = (r: string[]) => r.map((c, i) => c.padEnd(widths[i]!)).join('  ').trimEnd();
@@ -59,24 +64,31 @@ export function eventTable(events: readonly ConjunctionEvent[]): string {
 
 /**
  * The events block of `screen`, `events` and `demo`: tier counts, the events needing attention
- * (or all, by TCA, with `all`), a pointer to the rest, and the decision-aid note.
+ * (or all, by TCA, with `all`), a pointer to the rest, `more` lines (series counts), and the
+ * decision-aid note.
  */
-export function eventSummary(events: readonly ConjunctionEvent[], all: boolean): string {
+export function eventSummary(
+  events: readonly ConjunctionEvent[],
+  all: boolean,
+  more: readonly string[] = [],
+  plans?: ReadonlyMap<string, string>,
+): string {
   const out: string[] = [`Events by tier: ${tierCounts(events)}`];
   if (events.length === 0) {
     out.push('No events in the screening volume.');
   } else if (all) {
-    out.push('', `All ${events.length} event(s), by TCA:`, eventTable(events));
+    out.push('', `All ${events.length} event(s), by TCA:`, eventTable(events, plans));
   } else {
     const attention = events.filter(needsAttention).sort(byConcern);
     out.push('');
-    if (attention.length > 0) out.push(`Needing attention (${attention.length}), highest Pc first:`, eventTable(attention));
+    if (attention.length > 0) out.push(`Needing attention (${attention.length}), highest Pc first:`, eventTable(attention, plans));
     else out.push(`No event above ${labelOf(LOWEST_TIER)}.`);
     const rest = events.length - attention.length;
     if (rest > 0) {
       out.push(`${rest} ${labelOf(LOWEST_TIER)} event(s) not listed: --all-events lists every event; --json FILE writes them all.`);
     }
   }
+  if (more.length > 0) out.push('', ...more);
   out.push('', `Note: ${DECISION_AID_NOTE}`);
   return out.join('\n').replace(/\n{3,}/g, '\n\n') + '\n';
 }

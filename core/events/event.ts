@@ -6,4 +6,9 @@ export interface ConjunctionEvent extends Encounter {
   readonly id: string;
   readonly runId: string;
   readonly risk: RiskAssessment | null;
+  /**
+   * The series (the same conjunction across runs and messages) the event belongs to, once
+   * linked; null before, absent where the event was never stored.
+   */
+  readonly seriesId?: string | null;
 }

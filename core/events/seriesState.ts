@@ -16,6 +16,7 @@
  * and says nothing about others.
  */
 import type { Instant } from '../time/instant.js';
+import type { ScreeningVolume } from '../screening/types.js';
 import type { Series } from './seriesLink.js';
 import { sightingView, tcaTolerance } from './seriesTolerance.js';
 
@@ -39,6 +40,18 @@ export interface ScreeningCoverage {
   readonly primaries: readonly string[] | 'all';
   /** objects the run left out (propagation failures) */
   readonly flagged?: readonly string[];
+  /** the run's screening volume; absent: taken to hold any miss */
+  readonly volume?: ScreeningVolume;
+}
+
+/**
+ * Would the run's volume have held a sighting with this miss? For an ellipsoid only its smallest
+ * semi-axis is sure (the sighting's RTN frame may be the other object's), so a run misses a
+ * conjunction only where it certainly looked.
+ */
+function volumeHolds(volume: ScreeningVolume | undefined, missKm: number): boolean {
+  if (!volume) return true;
+  return volume.kind === 'sphere' ? missKm <= volume.radiusKm : missKm <= Math.min(volume.rKm, volume.tKm, volume.nKm);
 }
 
 export interface SeriesStatus {
@@ -90,6 +103,7 @@ export function seriesStatus(series: Series, runs: readonly ScreeningCoverage[],
     if (run.createdAt <= newest.source.createdAt || seenBy.has(run.id)) continue;
     if (run.start > tca - marginMs || run.end < tca + marginMs) continue;
     if (!screens(run, series.primary, series.secondary)) continue;
+    if (!volumeHolds(run.volume, newest.event.missKm)) continue;
     if (!missedBy || run.createdAt > missedBy.createdAt || (run.createdAt === missedBy.createdAt && run.id > missedBy.id)) missedBy = run;
   }
   if (missedBy) return { ...base, state: 'no-longer-predicted', missedBy: missedBy.id };

@@ -61,6 +61,11 @@ export class ManoeuvredTrajectory implements Trajectory {
   }
   private displacementBound: number | undefined;
 
+  /** The burn changes the velocity at once: interpolation must not span it. */
+  get breaks(): readonly Instant[] {
+    return [this.burn.time];
+  }
+
   stateInto(t: Instant, out: Float64Array, offset: number): FailureReason | null {
     if (t < this.burn.time) return this.base.stateInto(t, out, offset);
     if (!this.difference.stateInto(t, this.scratch, 0)) return 'outside-ephemeris';

@@ -68,6 +68,11 @@ export interface PlanInput {
   readonly verificationEnd?: Instant;
   /** the secondary's period (s), when shorter than the primary's (sets sampling steps) */
   readonly secondaryPeriodS?: number;
+  /**
+   * Called after each lead time of the sweep (done, total), for progress. It may throw (e.g. a
+   * cancellation) to stop the plan there.
+   */
+  readonly onLeadTime?: (done: number, total: number) => void;
 }
 
 export interface Proposal extends TradeRow {
@@ -160,7 +165,11 @@ export function planAvoidance(input: PlanInput): PlanResult {
     leads = kept;
   }
   const directions = input.directions ?? ['T', 'best'];
-  const trade = leads.flatMap((l) => tradeRowsAt(ctx, l, directions, original));
+  const trade = leads.flatMap((l, i) => {
+    const rows = tradeRowsAt(ctx, l, directions, original);
+    input.onLeadTime?.(i + 1, leads.length);
+    return rows;
+  });
   const chosen = chooseProposal(trade, { minLeadS: input.minLeadS, earliestBurn: input.earliestBurn });
   if (!chosen || !chosen.deltaVRtnMs) {
     notes.push('no row of the trade table meets the target within the constraints');

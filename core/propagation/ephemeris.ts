@@ -116,6 +116,11 @@ export class EphemerisTrajectory implements Trajectory {
     return this.pieces.map((p) => ({ start: p.from as Instant, end: p.to as Instant }));
   }
 
+  /** Where one segment hands over to another (a manoeuvre split): the state need not be smooth there. */
+  get breaks(): readonly Instant[] {
+    return this.pieces.slice(1).map((p) => p.from as Instant);
+  }
+
   /** Index of the piece serving t, or −1. */
   private pieceAt(t: number): number {
     const ps = this.pieces;

@@ -5,7 +5,7 @@ import type { SatRecInit } from '../../node_modules/satellite.js/dist/propagatio
 import { sgp4init } from '../../node_modules/satellite.js/dist/propagation/sgp4init.js';
 import type { ElementSet } from '../elements/elementSet.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
-import type { FailureReason, Trajectory } from './trajectory.js';
+import type { FailureReason, MeanElementSource, Trajectory } from './trajectory.js';
 import { vec3, type StateVector, type Km, type KmS } from '../units.js';
 
 const MS_PER_MIN = 60_000;
@@ -111,7 +111,7 @@ function domainFailure(es: ElementSet): FailureReason | null {
 }
 
 /** SGP4/SDP4 trajectory of one element set. Never throws: failures come back as reasons. */
-export class Sgp4Trajectory implements Trajectory {
+export class Sgp4Trajectory implements Trajectory, MeanElementSource {
   readonly objectId: string;
   readonly span = null;
   readonly epoch: Instant;
@@ -121,6 +121,11 @@ export class Sgp4Trajectory implements Trajectory {
   constructor(readonly elements: ElementSet) {
     this.objectId = elements.objectId;
     this.epoch = elements.epoch;
+  }
+
+  /** Its states are SGP4 of its element set: screening's mean-element filters apply. */
+  get meanElementSource(): MeanElementSource {
+    return this;
   }
 
   /** The SGP4 record, initialised on first use (most catalogue objects of a run never need it). */

@@ -1,4 +1,6 @@
+import type { SatRec } from 'satellite.js';
 import type { Instant } from '../time/instant.js';
+import type { ElementSet } from '../elements/elementSet.js';
 
 /**
  * Why a trajectory could not give a state. SGP4's numeric error codes become these names
@@ -29,4 +31,24 @@ export interface Trajectory {
   /** Span where the source is valid; SGP4 is unbounded (null). */
   readonly span: { readonly start: Instant; readonly end: Instant } | null;
   stateInto(t: Instant, out: Float64Array, offset: number): FailureReason | null;
+  /**
+   * Capability: present when the states are exactly SGP4 of a mean element set. Screening then
+   * builds its mean-element filters (radius band, orbit plane, time windows) from it and can
+   * skip probing propagation; without it, a trajectory is screened by its states alone.
+   */
+  readonly meanElementSource?: MeanElementSource;
+  /**
+   * Instants where the state is not smooth (an impulsive burn, a switch between ephemeris
+   * segments); the state at a break is the state after it. Interpolation must not span them.
+   */
+  readonly breaks?: readonly Instant[];
+}
+
+/** SGP4 element set behind a trajectory (see Trajectory.meanElementSource). */
+export interface MeanElementSource {
+  readonly elements: ElementSet;
+  /** the SGP4 record, initialised on first use */
+  readonly satrec: SatRec;
+  /** set when the element set cannot even be initialised (e.g. eccentricity ≥ 1) */
+  readonly initFailure: FailureReason | null;
 }

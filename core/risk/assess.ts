@@ -3,24 +3,23 @@ import { KeepclearError } from '../errors.js';
 import type { Matrix } from '../math/linalg.js';
 import type { Encounter, Matrix2, Matrix3, RiskAssessment, RiskDetail, StateArray } from '../events/index.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
-import { covarianceFromCdm } from './covarianceCdm.js';
 import { defaultCovariance, regimeOf } from './covarianceDefault.js';
 import { covarianceFromHistory } from './covarianceHistory.js';
-import { checkCovariance } from './covariancePsd.js';
+import { judgeCovariance } from './covariancePsd.js';
 import type { Regime } from './defaultCovarianceTable.js';
 import { encounterPlane, type EncounterPlane } from './encounterPlane.js';
-import { rtnBasis, rtnToInertialCov } from './frames.js';
+import { rtnToInertialCov6, type Vec3n } from './frames.js';
 import { combinedHbr } from './hardBody.js';
 import { pc2dFast } from './pc2dFast.js';
 import { pc2dReference } from './pc2dReference.js';
+import { pc3d } from './pc3d.js';
 import { pcMax } from './pcMax.js';
 import { checkShortEncounter } from './shortEncounter.js';
+import type { State6 } from './twoBody.js';
 import { DEFAULT_TIER_THRESHOLDS, tierFor, type TierThresholds } from './tiers.js';
 
-/** Shown wherever a Pc or tier could inform a manoeuvre decision. */
-export const DECISION_AID_NOTE =
-  'Keepclear results are a decision aid only. Defer to the screening provider\'s conjunction ' +
-  'messages, your licensed operating practice and local rules before deciding on any manoeuvre.';
+/** Shown wherever a Pc or tier could inform a manoeuvre decision (own file, so the renderer can import it alone). */
+export { DECISION_AID_NOTE } from './decisionAid.js';
 
 /** What is known about one object's position uncertainty at TCA; used in this order. */
 export interface CovarianceInput {
@@ -47,10 +46,22 @@ export interface AssessInputs {
   readonly thresholds?: Partial<TierThresholds>;
   /** '2d-reference' (default) or '2d-fast' */
   readonly method?: 'reference' | 'fast';
+  /**
+   * 'auto' (default): the 3-D method (Coppola 2012, pc3d.ts) wherever the short-encounter check
+   * fails, the 2-D method elsewhere. '2d': always the 2-D method (with the check's warnings),
+   * for callers that must stay fast and compare like with like (the manoeuvre solver's loop).
+   */
+  readonly encounterModel?: 'auto' | '2d';
 }
 
+/** pcMethod names (JSON contract field `pcMethod`). */
+export const PC_METHOD_3D = '3d-coppola';
+
 interface Resolved {
+  /** 3×3 inertial position covariance (m²), for the 2-D method */
   readonly inertialM2: Matrix | null;
+  /** 6×6 inertial position-velocity covariance (m², m²/s, m²/s²), for the 3-D method */
+  readonly inertial6: Matrix | null;
   /** the same covariance's 3×3 position block in the object's RTN frame (m²), when usable */
   readonly rtnM2: Matrix | null;
   readonly source: string;
@@ -58,33 +69,51 @@ interface Resolved {
   readonly notes: readonly string[];
 }
 
+const vec = (a: number, b: number, c: number): Vec3n => [a, b, c];
+
+/**
+ * A position-only (3×3) RTN covariance becomes 6×6 with a zero velocity block in the rotating
+ * frame: the position error is taken to keep pace with the frame (an object displaced along its
+ * own orbit), which through the ω×r term of the Jacobian is a velocity error of ω×δr in inertial
+ * axes. Our modelling choice for sources that give no velocity statistics (default table).
+ */
+function asRtn6(rtn: Matrix): Matrix {
+  if (rtn.length >= 6) return rtn.slice(0, 6).map((row) => row.slice(0, 6));
+  return Array.from({ length: 6 }, (_, i) => Array.from({ length: 6 }, (_, j) => (i < 3 && j < 3 ? rtn[i]![j]! : 0)));
+}
+
 function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch: Instant, label: string): Resolved {
-  const basis = rtnBasis([state[0], state[1], state[2]], [state[3], state[4], state[5]]);
+  const r = vec(state[0], state[1], state[2]), v = vec(state[3], state[4], state[5]);
+  // One PSD policy for every source (covariancePsd.ts); a CDM matrix judged on reading is judged
+  // again here by the same rule, which leaves it as it was.
   const graded = (rtn: Matrix, source: string): Resolved => {
-    const c = checkCovariance(rtn, `${label} ${source}`);
-    const usable = c.status !== 'doubtful';
+    const verdict = judgeCovariance(rtn, `${label} ${source}`);
+    const notes = verdict.note ? [verdict.note] : [];
+    if (!verdict.usable) return { inertialM2: null, inertial6: null, rtnM2: null, source, doubtful: true, notes };
+    const inertial6 = rtnToInertialCov6(asRtn6(verdict.usable), r, v);
     return {
-      inertialM2: usable ? rtnToInertialCov(c.matrix, basis) : null,
-      rtnM2: usable ? c.matrix.slice(0, 3).map((row) => row.slice(0, 3)) : null,
+      inertialM2: inertial6.slice(0, 3).map((row) => row.slice(0, 3)),
+      inertial6,
+      rtnM2: verdict.usable.slice(0, 3).map((row) => row.slice(0, 3)),
       source,
-      doubtful: c.status === 'doubtful',
-      notes: c.note ? [c.note] : [],
+      doubtful: false,
+      notes,
     };
   };
   if (input.cdmDoubtfulNote) {
-    return { inertialM2: null, rtnM2: null, source: 'cdm (not PSD)', doubtful: true, notes: [input.cdmDoubtfulNote] };
+    return { inertialM2: null, inertial6: null, rtnM2: null, source: 'cdm (unusable)', doubtful: true, notes: [input.cdmDoubtfulNote] };
   }
-  if (input.cdmRtnM2) return graded(covarianceFromCdm(input.cdmRtnM2, state).rtnM2, 'cdm');
+  if (input.cdmRtnM2) return graded(input.cdmRtnM2, 'cdm');
   if (input.history) {
     const h = covarianceFromHistory(input.history, tca);
-    if (h) return graded(h.rtnM2, h.source);
+    if (h) return graded(h.rtn6, h.source);
   }
   const regime = input.regime ?? (input.elements ? regimeOf(input.elements) : null);
   if (regime) {
     const d = defaultCovariance(regime, (tca - (input.elements?.epoch ?? epoch)) / MS_PER_DAY);
     return graded(d.rtnM2, d.source);
   }
-  return { inertialM2: null, rtnM2: null, source: 'none', doubtful: false, notes: [`${label}: no covariance available`] };
+  return { inertialM2: null, inertial6: null, rtnM2: null, source: 'none', doubtful: false, notes: [`${label}: no covariance available`] };
 }
 
 /**
@@ -127,19 +156,44 @@ export function assessEncounter(encounter: Encounter, inputs: AssessInputs): Ris
     return done(pcMax(plane.missM, null, hbr.radiusM).pc, `max-pc (${why})`);
   };
   if (!p.inertialM2 || !s.inertialM2) return maxPc(p.doubtful || s.doubtful ? 'doubtful covariance' : 'no covariance');
-  warnings.push(
-    ...checkShortEncounter(encounter.primaryState, encounter.secondaryState, plane.relVelMps, plane.combinedCovM2, hbr.radiusM)
-      .warnings,
+  const shortCheck = checkShortEncounter(
+    encounter.primaryState, encounter.secondaryState, plane.relVelMps, plane.combinedCovM2, hbr.radiusM,
   );
+  warnings.push(...shortCheck.warnings);
+  let pc2: number;
   try {
-    if (inputs.method === 'fast') return done(pc2dFast(plane.missM, plane.covM2, hbr.radiusM), '2d-fast');
-    return done(pc2dReference(plane.missM, plane.covM2, hbr.radiusM), '2d-reference');
+    pc2 = inputs.method === 'fast' ? pc2dFast(plane.missM, plane.covM2, hbr.radiusM) : pc2dReference(plane.missM, plane.covM2, hbr.radiusM);
   } catch (e) {
     if (!(e instanceof KeepclearError)) throw e;
     warnings.push(e.message);
     return maxPc('doubtful covariance');
   }
+  const method2d = inputs.method === 'fast' ? '2d-fast' : '2d-reference';
+  if (shortCheck.warnings.length === 0 || inputs.encounterModel === '2d' || !p.inertial6 || !s.inertial6) return done(pc2, method2d);
+  try {
+    const r3 = pc3d({
+      primary: toMetres(encounter.primaryState),
+      secondary: toMetres(encounter.secondaryState),
+      primaryCov: p.inertial6,
+      secondaryCov: s.inertial6,
+      radiusM: hbr.radiusM,
+    });
+    warnings.push(
+      `Pc by the 3-D method (Coppola 2012: inflow into the hard-body sphere over ±${r3.halfWindowS.toFixed(0)} s around TCA, ` +
+        `two-body relative motion) because the short-encounter assumption does not hold; the 2-D Pc would be ${pc2.toExponential(2)}`,
+    );
+    if (r3.windowCapped)
+      warnings.push(`3-D Pc window cut at ±${r3.halfWindowS.toFixed(0)} s (a quarter orbit): the uncertainty region is crossed more slowly than that`);
+    if (!r3.converged) warnings.push('3-D Pc time integration did not reach its tolerance; the value is approximate');
+    return done(r3.pc, PC_METHOD_3D);
+  } catch (e) {
+    if (!(e instanceof KeepclearError)) throw e;
+    warnings.push(`3-D Pc not possible (${e.message}); the 2-D Pc is given although its assumption does not hold`);
+    return done(pc2, method2d);
+  }
 }
+
+const toMetres = (s: StateArray): State6 => [s[0] * 1000, s[1] * 1000, s[2] * 1000, s[3] * 1000, s[4] * 1000, s[5] * 1000];
 
 const matrix3 = (m: Matrix | null): Matrix3 | null =>
   m ? (m.slice(0, 3).map((row) => [row[0]!, row[1]!, row[2]!] as const) as unknown as Matrix3) : null;

@@ -2,7 +2,7 @@ import type { ElementSet } from '../elements/elementSet.js';
 import type { Matrix } from '../math/linalg.js';
 import { Sgp4Trajectory } from '../propagation/sgp4.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
-import { inertialToRtnVec, rtnBasis } from './frames.js';
+import { rtnJacobian } from './frames.js';
 
 /** Older sets needed for a sample covariance of 3 axes to mean anything. */
 export const MIN_OLDER_SETS = 3;
@@ -14,8 +14,14 @@ export const HISTORY_SAMPLE_POINTS = 4;
 export const GROWTH_FLOOR_DAYS = 0.5;
 
 export interface HistoryCovariance {
-  /** RTN covariance at the requested time (m²), after the growth model */
+  /** RTN covariance at the requested time (m²), after the growth model: the 3×3 position block */
   readonly rtnM2: Matrix;
+  /**
+   * The same as a 6×6 position-velocity covariance in the rotating RTN frame (m², m²/s, m²/s²):
+   * velocity differences seen in the newest set's rotating frame (with the ω×r term,
+   * frames.rtnJacobian). Growth scales the T position row and column only.
+   */
+  readonly rtn6: Matrix;
   /** mean-square RTN differences of the older sets' predictions (m²), before growth */
   readonly sampleRtnM2: Matrix;
   /** mean propagation span of the older sets to the newest epoch, days */
@@ -51,41 +57,42 @@ export function covarianceFromHistory(sets: readonly ElementSet[], at: Instant):
   const times = Array.from({ length: HISTORY_SAMPLE_POINTS }, (_, k) => (newest.epoch + (k * periodMs) / HISTORY_SAMPLE_POINTS) as Instant);
   const refStates = new Float64Array(6 * times.length);
   for (let k = 0; k < times.length; k++) if (ref.stateInto(times[k]!, refStates, 6 * k)) return null;
-  const acc = [0, 0, 0, 0, 0, 0, 0, 0, 0];
+  const acc = new Float64Array(36);
   const buf = new Float64Array(6);
+  const jacobians = times.map((_, k) => {
+    const o = 6 * k;
+    return rtnJacobian(
+      [refStates[o]!, refStates[o + 1]!, refStates[o + 2]!],
+      [refStates[o + 3]!, refStates[o + 4]!, refStates[o + 5]!],
+    );
+  });
   let used = 0, spanSum = 0, samples = 0;
   for (const s of older) {
     const traj = new Sgp4Trajectory(s);
-    const diffs: (readonly [number, number, number])[] = [];
+    const diffs: number[][] = [];
     for (let k = 0; k < times.length; k++) {
       if (traj.stateInto(times[k]!, buf, 0)) break;
       const o = 6 * k;
-      const basis = rtnBasis(
-        [refStates[o]!, refStates[o + 1]!, refStates[o + 2]!],
-        [refStates[o + 3]!, refStates[o + 4]!, refStates[o + 5]!],
-      );
-      diffs.push(
-        inertialToRtnVec(
-          [(buf[0]! - refStates[o]!) * 1000, (buf[1]! - refStates[o + 1]!) * 1000, (buf[2]! - refStates[o + 2]!) * 1000],
-          basis,
-        ),
-      );
+      const dx = [0, 1, 2, 3, 4, 5].map((i) => (buf[i]! - refStates[o + i]!) * 1000); // m, m/s
+      diffs.push(jacobians[k]!.map((row) => row.reduce((a, x, i) => a + x * dx[i]!, 0)));
     }
     if (diffs.length !== times.length) continue; // propagation failed: leave this set out
-    for (const d of diffs) for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) acc[3 * i + j] = acc[3 * i + j]! + d[i]! * d[j]!;
+    for (const d of diffs) for (let i = 0; i < 6; i++) for (let j = 0; j < 6; j++) acc[6 * i + j] = acc[6 * i + j]! + d[i]! * d[j]!;
     samples += diffs.length;
     used++;
     spanSum += (newest.epoch - s.epoch) / MS_PER_DAY;
   }
   if (used < MIN_OLDER_SETS) return null;
-  const sample = [0, 1, 2].map((i) => [0, 1, 2].map((j) => acc[3 * i + j]! / samples));
+  const sample6 = [0, 1, 2, 3, 4, 5].map((i) => [0, 1, 2, 3, 4, 5].map((j) => acc[6 * i + j]! / samples));
+  const sample = sample6.slice(0, 3).map((row) => row.slice(0, 3));
   const meanSpan = spanSum / used;
   const age = Math.abs(at - newest.epoch) / MS_PER_DAY;
   const g = (GROWTH_FLOOR_DAYS + age) / (GROWTH_FLOOR_DAYS + meanSpan);
-  const scaleOf = [1, g, 1];
-  const grown = sample.map((row, i) => row.map((x, j) => x * scaleOf[i]! * scaleOf[j]!));
+  const scaleOf = [1, g, 1, 1, 1, 1];
+  const grown6 = sample6.map((row, i) => row.map((x, j) => x * scaleOf[i]! * scaleOf[j]!));
   return {
-    rtnM2: grown,
+    rtnM2: grown6.slice(0, 3).map((row) => row.slice(0, 3)),
+    rtn6: grown6,
     sampleRtnM2: sample,
     meanSpanDays: meanSpan,
     ageDays: age,

@@ -1,5 +1,7 @@
 import type { ElementSet } from '../elements/elementSet.js';
-import { objectFromElements, ScreeningSession, type ScreeningObject, type WindowSettings } from './engine.js';
+import { objectFromElements, objectFromSamples, ScreeningSession, type ScreeningObject, type WindowSettings } from './engine.js';
+import type { SampleTable } from '../propagation/sampledTrajectory.js';
+import type { Instant } from '../time/instant.js';
 import { StateGrid } from './primaryGrid.js';
 import type { FlaggedObject } from './types.js';
 import type { Encounter } from '../events/index.js';
@@ -15,6 +17,12 @@ export interface GridLayout {
   readonly count: number;
   readonly stepMs: number;
   readonly vMaxKmS: number;
+}
+
+/** A primary given as samples of a trajectory (values in shared memory) and its data epoch. */
+export interface SampledPrimary {
+  readonly table: SampleTable;
+  readonly epoch: Instant;
 }
 
 export interface ChunkResult {
@@ -38,8 +46,10 @@ export class ScreeningChunk {
     elementSets: readonly ElementSet[],
     readonly settings: WindowSettings,
     private readonly control: Int32Array,
+    sampled: readonly SampledPrimary[] = [],
   ) {
     this.objects = elementSets.map(objectFromElements);
+    for (const p of sampled) this.objects.push(objectFromSamples(p.table, p.epoch));
     this.objects.forEach((o, i) => this.byId.set(o.id, i));
     this.session = new ScreeningSession(settings);
   }

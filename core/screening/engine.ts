@@ -2,6 +2,7 @@ import type { Instant } from '../time/instant.js';
 import type { ElementSet } from '../elements/elementSet.js';
 import type { FailureReason, Trajectory } from '../propagation/trajectory.js';
 import { Sgp4Trajectory } from '../propagation/sgp4.js';
+import { SampledTrajectory, type SampleTable } from '../propagation/sampledTrajectory.js';
 import { buildSgp4Model, exactModel, type OrbitModel } from './orbitModel.js';
 import { buildStateGrid, gridStepMs, type StateGrid } from './primaryGrid.js';
 import { candidateRegions, type FilterStats, type Regions } from './pairFilter.js';
@@ -14,7 +15,7 @@ import type { Encounter } from '../events/index.js';
 /** Spacing of the sampled mean elements of the filter model (min): 12 h keeps ε honest (tested). */
 const MODEL_NODE_SPACING_MIN = 720;
 /** The filter model also covers this much outside the window, for the refinement margins (ms). */
-const MODEL_MARGIN_MS = 3_600_000;
+export const MODEL_MARGIN_MS = 3_600_000;
 /** Resolution of the decay time found by bisection (ms). */
 const VALIDITY_RESOLUTION_MS = 1000;
 /** Padding of the element-set radius band (see coarseRadiusBand). */
@@ -35,6 +36,8 @@ export interface ScreeningObject {
   readonly gridStepMs?: number;
   /** speed bound (km/s) for sources without a mean-element model */
   readonly vMaxKmS?: number;
+  /** bounds of |r| (km) over the window for sources without mean elements (coarse radius filter) */
+  readonly radiusBandKm?: readonly [number, number];
 }
 
 export function objectFromElements(es: ElementSet): ScreeningObject {
@@ -45,6 +48,41 @@ export function objectFromElements(es: ElementSet): ScreeningObject {
     periodMin: 1440 / es.meanMotion,
     gridStepMs: gridStepMs(es.meanMotion, es.eccentricity),
   };
+}
+
+/**
+ * A primary given as samples of any trajectory (sampledTrajectory.ts). Its period and grid
+ * step come from the osculating orbit of its first sample; its radius band and speed bound
+ * from the samples.
+ */
+export function objectFromSamples(table: SampleTable, epoch: Instant): ScreeningObject {
+  const trajectory = new SampledTrajectory(table);
+  const p = table.pieces[0];
+  const first = p ? table.values.subarray(p.first * 6, p.first * 6 + 6) : null;
+  const osc = first ? osculatingMeanMotion(first) : null;
+  return {
+    id: table.objectId,
+    trajectory,
+    epoch,
+    periodMin: osc ? 1440 / osc.revPerDay : 90,
+    gridStepMs: osc ? gridStepMs(osc.revPerDay, osc.e) : 5000,
+    vMaxKmS: table.vMaxKmS,
+    radiusBandKm: [table.rMinKm, table.rMaxKm],
+  };
+}
+
+/** Osculating mean motion (rev/day) and eccentricity of a TEME state. */
+function osculatingMeanMotion(s: ArrayLike<number>): { revPerDay: number; e: number } | null {
+  const r = Math.hypot(s[0]!, s[1]!, s[2]!);
+  const v2 = s[3]! ** 2 + s[4]! ** 2 + s[5]! ** 2;
+  const energy = v2 / 2 - MU_EARTH_WGS72 / r;
+  if (!(energy < 0)) return null;
+  const a = -MU_EARTH_WGS72 / (2 * energy);
+  const hx = s[1]! * s[5]! - s[2]! * s[4]!, hy = s[2]! * s[3]! - s[0]! * s[5]!, hz = s[0]! * s[4]! - s[1]! * s[3]!;
+  const h2 = hx * hx + hy * hy + hz * hz;
+  const e = Math.sqrt(Math.max(0, 1 - h2 / (MU_EARTH_WGS72 * a)));
+  const n = Math.sqrt(MU_EARTH_WGS72 / (a * a * a)); // rad/s
+  return { revPerDay: (n * 86_400) / (2 * Math.PI), e };
 }
 
 export interface WindowSettings {
@@ -113,20 +151,20 @@ export class ScreeningSession {
   model(o: ScreeningObject): OrbitModel | null {
     let m = this.models.get(o.id);
     if (m === undefined) {
-      const tr = o.trajectory;
+      const src = o.trajectory.meanElementSource;
       const until = this.validUntil(o);
       if (until === null) m = 'bad-elements';
-      else if (tr instanceof Sgp4Trajectory) {
-        m = tr.initFailure ?? buildSgp4Model(
-          tr.satrec,
-          tr.epoch,
+      else if (src) {
+        m = src.initFailure ?? buildSgp4Model(
+          src.satrec,
+          src.elements.epoch,
           (this.settings.start - MODEL_MARGIN_MS) as Instant,
           until as Instant,
           MODEL_NODE_SPACING_MIN,
         );
         this.stats.sgp4Evaluations += 2 * Math.ceil((this.settings.end - this.settings.start) / 60_000 / MODEL_NODE_SPACING_MIN) + 3;
       } else {
-        m = exactModel(tr, o.vMaxKmS ?? 15);
+        m = exactModel(o.trajectory, o.vMaxKmS ?? 15, o.radiusBandKm);
       }
       this.models.set(o.id, m);
     }
@@ -232,9 +270,8 @@ export class ScreeningSession {
  * lifetimes at 300 km are weeks to months).
  */
 function cannotFailInWindow(o: ScreeningObject, spanMs: number): boolean {
-  const tr = o.trajectory;
-  if (!(tr instanceof Sgp4Trajectory) || spanMs > SAFE_SPAN_MS) return false;
-  const es = tr.elements;
+  const es = o.trajectory.meanElementSource?.elements;
+  if (!es || spanMs > SAFE_SPAN_MS) return false;
   if (!(es.meanMotion > 0 && es.eccentricity >= 0 && es.eccentricity < SAFE_MAX_ECCENTRICITY)) return false;
   if (!(Math.abs(es.bstar) <= SAFE_MAX_BSTAR)) return false;
   if (![es.inclinationDeg, es.raanDeg, es.argPerigeeDeg, es.meanAnomalyDeg, es.meanMotionDot].every(Number.isFinite)) return false;
@@ -249,16 +286,16 @@ const SAFE_MAX_ECCENTRICITY = 0.9;
 const SAFE_SPAN_MS = 31 * 86_400_000;
 
 /**
- * Radius band of an SGP4 object from its element set, padded so that no
+ * Radius band of an object before any model is built. Sources without mean elements give their
+ * own (a sampled primary: from its samples, padded). For SGP4, from the element set, padded so that no
  * osculating radius during a screening week can fall outside: 60 km covers SGP4's short-period
  * J2 terms (≤ ~20 km measured in LEO, see orbitModel) plus a week of drag decay at B* ≤ 0.01;
  * 1 % of a covers lunar–solar changes of e for deep-space orbits (≤ ~1e-3 per week).
- * Null for sources without elements.
+ * Null for sources with neither.
  */
 function coarseRadiusBand(o: ScreeningObject): [number, number] | null {
-  const tr = o.trajectory;
-  if (!(tr instanceof Sgp4Trajectory)) return null;
-  const es = tr.elements;
+  const es = o.trajectory.meanElementSource?.elements;
+  if (!es) return o.radiusBandKm ? [o.radiusBandKm[0], o.radiusBandKm[1]] : null;
   if (!(es.meanMotion > 0 && es.eccentricity >= 0 && es.eccentricity < 1)) return null;
   // Kepler's third law on the (Kozai) mean motion: differs from SGP4's recovered a by
   // O(J2) ≈ 1e-3·a, inside the pad; no SGP4 initialisation is needed for this test.

@@ -289,19 +289,21 @@ class KeplerModel implements OrbitModel {
 }
 
 /**
- * Filter model of a trajectory that has no mean elements (straight line, owner ephemeris):
- * the exact positions (error 0) and no orbit plane, so only the distance bound filters it.
+ * Filter model of a trajectory that has no mean elements (straight line, owner ephemeris,
+ * sampled primary): the exact positions (error 0) and no orbit plane, so only the radius band
+ * (when the source knows one) and the distance bound filter it.
  */
 export function exactModel(
   traj: { stateInto(t: Instant, out: Float64Array, off: number): FailureReason | null },
   vMaxKmS: number,
+  radiusBandKm?: readonly [number, number],
 ): OrbitModel {
   const buf = new Float64Array(6);
   return {
     epsKm: 0,
     hasPlane: false,
-    rMinKm: 0,
-    rMaxKm: Infinity,
+    rMinKm: radiusBandKm?.[0] ?? 0,
+    rMaxKm: radiusBandKm?.[1] ?? Infinity,
     vMaxKmS,
     positionInto(t, out, off) {
       if (traj.stateInto(t, buf, 0)) {

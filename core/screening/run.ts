@@ -3,16 +3,18 @@ import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { availableParallelism } from 'node:os';
 import type { ElementSet } from '../elements/elementSet.js';
 import { KeepclearError } from '../errors.js';
-import { Worker } from 'node:worker_threads';
-import { spawnTsWorker } from '../workers/spawn.js';
-import { bundledWorker } from '../workers/bundle.js';
+import { startWorkers } from '../workers/entry.js';
 import { packSets } from './packedSets.js';
-import { CTRL_CANCEL, CTRL_DONE, ScreeningChunk, type ChunkResult, type GridLayout } from './chunk.js';
+import { CTRL_CANCEL, CTRL_DONE, ScreeningChunk, type ChunkResult, type GridLayout, type SampledPrimary } from './chunk.js';
 import { gridPointCount, gridStepMs } from './primaryGrid.js';
-import type { WindowSettings } from './engine.js';
+import { MODEL_MARGIN_MS, objectFromSamples, type WindowSettings } from './engine.js';
+import type { Instant } from '../time/instant.js';
+import type { Trajectory } from '../propagation/trajectory.js';
+import { sampleCapacity, sampleStepMs, sampleTrajectory } from '../propagation/sampledTrajectory.js';
 import type { FlaggedObject, ScreeningSettings } from './types.js';
 import type { Encounter } from '../events/index.js';
 import type { ScreeningWorkerApi } from './worker.js';
+import { runAllVsAll } from './spatial/runAllVsAll.js';
 
 export interface RunOptions {
   /** worker threads; 0 runs in this thread. Default: one per core. */
@@ -20,7 +22,31 @@ export interface RunOptions {
   /** called about every 200 ms with units done / total (secondaries, or primaries for all-vs-all) */
   readonly onProgress?: (done: number, total: number) => void;
   readonly signal?: AbortSignal;
+  /**
+   * Primaries given as trajectories (an owner ephemeris, a manoeuvred trajectory, …) in place
+   * of their element sets. Each must be listed in `settings.primaries`; it is sampled once in
+   * this thread (sampledTrajectory.ts: interpolation error ≤ 1 mm) and screened from the
+   * samples, also as a secondary of the other primaries. Its element set, if any, is not used.
+   */
+  readonly primaryTrajectories?: readonly PrimaryTrajectory[];
 }
+
+/** A primary given as a trajectory (see RunOptions.primaryTrajectories). */
+export interface PrimaryTrajectory {
+  readonly trajectory: Trajectory;
+  /**
+   * Epoch of the data behind it (element set epoch, ephemeris creation), carried into each
+   * encounter as the primary's epoch. Default: the epoch of the object's element set in the
+   * catalogue, else the window start.
+   */
+  readonly epoch?: Instant;
+}
+
+/**
+ * Samples are taken this far outside the window (ms): the validity probe and the filter model
+ * reach MODEL_MARGIN_MS past the end; refinement's differencing reaches ≤ 16 s past either edge.
+ */
+const SAMPLE_MARGIN_MS = MODEL_MARGIN_MS + 60_000;
 
 export interface ScreeningOutcome {
   readonly encounters: Encounter[];
@@ -46,9 +72,17 @@ export async function runScreening(
   }
   const ids = new Set(elementSets.map((e) => e.objectId));
   const all = settings.primaries === 'all';
+  if (settings.shard && !all) throw new KeepclearError('BAD_ARGUMENT', 'a shard (--shard K/N) needs an all-vs-all run (--all)');
   const primaries = all ? [] : [...new Set(settings.primaries as readonly string[])];
+  const given = new Map((options.primaryTrajectories ?? []).map((p) => [p.trajectory.objectId, p]));
+  if (all && given.size > 0) {
+    throw new KeepclearError('BAD_ARGUMENT', 'primary trajectories apply to fleet screening, not to all-vs-all');
+  }
+  for (const id of given.keys()) {
+    if (!primaries.includes(id)) throw new KeepclearError('BAD_ARGUMENT', `trajectory of ${id} given, but ${id} is not a listed primary`);
+  }
   for (const p of primaries) {
-    if (!ids.has(p)) throw new KeepclearError('NOT_FOUND', `primary ${p} has no element set in the catalogue`);
+    if (!ids.has(p) && !given.has(p)) throw new KeepclearError('NOT_FOUND', `primary ${p} has no element set in the catalogue`);
   }
   const win: WindowSettings = { start: settings.start, end: settings.end, volume: settings.volume };
   const nWorkers = options.workers ?? availableParallelism();
@@ -56,14 +90,21 @@ export async function runScreening(
     throw new KeepclearError('BAD_ARGUMENT', `worker count must be a whole number ≥ 0, got ${nWorkers}`);
   }
   const control = new Int32Array(new SharedArrayBuffer(8));
-  const total = elementSets.length;
+  const bySet = new Map(elementSets.map((e) => [e.objectId, e]));
+  // Trajectory primaries: sampled here into shared memory; their element sets step aside.
+  const sampled: SampledPrimary[] = [...given.values()].map((p) => ({
+    table: sampleIntoShared(p.trajectory, settings.start, settings.end),
+    epoch: p.epoch ?? bySet.get(p.trajectory.objectId)?.epoch ?? settings.start,
+  }));
+  const catalog = given.size ? elementSets.filter((e) => !given.has(e.objectId)) : elementSets;
+  const total = catalog.length + sampled.length;
+  const sampledStep = new Map(sampled.map((p) => [p.table.objectId, objectFromSamples(p.table, p.epoch).gridStepMs!]));
 
   // Grid layout for the primaries, in one shared buffer.
-  const bySet = new Map(elementSets.map((e) => [e.objectId, e]));
   let offset = 0;
   const layout = primaries.map((id) => {
-    const es = bySet.get(id)!;
-    const stepMs = gridStepMs(es.meanMotion, es.eccentricity);
+    const es = bySet.get(id);
+    const stepMs = sampledStep.get(id) ?? gridStepMs(es!.meanMotion, es!.eccentricity);
     const count = gridPointCount(settings.start, settings.end, stepMs);
     const l = { id, offset, count, stepMs };
     offset += count * 6;
@@ -80,8 +121,11 @@ export async function runScreening(
     : null;
   try {
     let results: ChunkResult[];
-    if (nWorkers <= 0) {
-      const chunk = new ScreeningChunk(elementSets, win, control);
+    if (all) {
+      // All-vs-all goes through the spatial index (spatial/runAllVsAll.ts).
+      results = await runAllVsAll(elementSets, win, control, nWorkers, settings.shard);
+    } else if (nWorkers <= 0) {
+      const chunk = new ScreeningChunk(catalog, win, control, sampled);
       if (all) results = [chunk.screenAllPairs(0, 1)];
       else {
         const built = chunk.buildGrids(layout, new Float64Array(gridBuffer));
@@ -89,7 +133,7 @@ export async function runScreening(
         results = [chunk.screenShared(primaries, 0, 1)];
       }
     } else {
-      results = await inWorkers(nWorkers, elementSets, win, control, all, primaries, layout, gridBuffer);
+      results = await inWorkers(nWorkers, catalog, sampled, win, control, all, primaries, layout, gridBuffer);
     }
     options.onProgress?.(Atomics.load(control, CTRL_DONE), total);
     return merge(results, performance.now() - t0);
@@ -102,6 +146,7 @@ export async function runScreening(
 async function inWorkers(
   n: number,
   elementSets: readonly ElementSet[],
+  sampled: readonly SampledPrimary[],
   win: WindowSettings,
   control: Int32Array,
   all: boolean,
@@ -109,13 +154,11 @@ async function inWorkers(
   layout: { id: string; offset: number; count: number; stepMs: number }[],
   gridBuffer: SharedArrayBuffer,
 ): Promise<ChunkResult[]> {
-  const entry = new URL('./worker.ts', import.meta.url);
-  const script = await bundledWorker(entry);
-  const workers = Array.from({ length: n }, () => (script ? new Worker(script) : spawnTsWorker(entry)));
+  const workers = await startWorkers('./worker.ts', import.meta.url, n);
   const apis: Remote<ScreeningWorkerApi>[] = workers.map((w) => wrap<ScreeningWorkerApi>(nodeEndpoint(w)));
   try {
     const packed = packSets(elementSets);
-    await Promise.all(apis.map((a) => a.init(packed, win, control.buffer as SharedArrayBuffer)));
+    await Promise.all(apis.map((a) => a.init(packed, win, control.buffer as SharedArrayBuffer, sampled as SampledPrimary[])));
     if (all) return await Promise.all(apis.map((a, i) => a.screenAllPairs(i, n)));
     // Primary grids: split among workers, written into the shared buffer.
     const parts = apis.map((_, i) => layout.filter((_, k) => k % n === i));
@@ -127,6 +170,17 @@ async function inWorkers(
     for (const a of apis) a[releaseProxy]();
     await Promise.all(workers.map((w) => w.terminate()));
   }
+}
+
+/** Samples a primary over the window and its margins into a SharedArrayBuffer. */
+function sampleIntoShared(traj: Trajectory, start: Instant, end: Instant) {
+  const from = (start - SAMPLE_MARGIN_MS) as Instant, to = (end + SAMPLE_MARGIN_MS) as Instant;
+  const probe = new Float64Array(6);
+  // The step follows the orbit at the window start (or the margin's start if that fails).
+  const stepMs = traj.stateInto(start, probe, 0) && traj.stateInto(from, probe, 0) ? 1000 : sampleStepMs(probe);
+  const breaks = traj.breaks?.length ?? 0;
+  const buffer = new Float64Array(new SharedArrayBuffer(8 * sampleCapacity(from, to, stepMs, breaks)));
+  return sampleTrajectory(traj, from, to, { stepMs, buffer });
 }
 
 function merge(results: ChunkResult[], wallMs: number): ScreeningOutcome {

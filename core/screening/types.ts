@@ -1,4 +1,5 @@
 import type { Instant } from '../time/instant.js';
+import type { ShardSpec } from './spatial/shard.js';
 
 /** Screening volume around the primary. */
 export type ScreeningVolume =
@@ -13,6 +14,8 @@ export interface ScreeningSettings {
   readonly volume: ScreeningVolume;
   /** Object ids screened as primaries; 'all' for all-vs-all. */
   readonly primaries: readonly string[] | 'all';
+  /** All-vs-all only: screen the K-th of N parts of the pairs (spatial/shard.ts). */
+  readonly shard?: ShardSpec;
 }
 
 /** An object left out of a run, with the reason (propagation failure, bad elements, …). */

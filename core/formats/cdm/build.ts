@@ -213,7 +213,7 @@ export function buildCdm(raw: RawCdm, file: string, opts: CdmReadOptions = {}): 
     }
     const matrix = assembleCovariance(terms, dim);
     const verdict = judgeCovariance(matrix, label);
-    if (verdict.status === 'not-psd' && opts.badCovariance !== 'flag')
+    if (verdict.usable === null && opts.badCovariance !== 'flag')
       b.reject('CDM_COVARIANCE', covLine,
         `${verdict.note}; the message is refused — ask the originator for a valid covariance`);
     else if (verdict.note) b.repairs.push(`${file}:${covLine}: ${verdict.note}`);

@@ -6,6 +6,7 @@
  * the standard does not define (`extras`), so nothing received is lost.
  */
 import type { Matrix } from '../../math/linalg.js';
+import type { CovarianceStatus } from '../../risk/covariancePsd.js';
 import type { Instant } from '../../time/instant.js';
 import type { M, MS, StateVector } from '../../units.js';
 import type { CDM_REF_FRAMES } from './keywords.js';
@@ -122,9 +123,11 @@ export interface CdmStateVector extends CdmBlockInfo, StateVector<CdmRefFrame> {
  * How the received covariance was judged. `psd`: usable as received. `repaired`: clipped to the
  * nearest PSD matrix within rounding tolerance. `extension-dropped`: the 6×6 block is fine but
  * the drag/SRP/thrust rows made it non-PSD beyond rounding, so only the 6×6 is usable.
- * `not-psd`: unusable (only kept when the caller asked to keep such messages).
+ * `not-psd`: unusable; `zero`: the position block is all zero (no uncertainty stated), unusable.
+ * Unusable ones are kept only when the caller asked to keep such messages. The judge is THE
+ * covariance policy, core/risk/covariancePsd.ts.
  */
-export type CdmCovarianceStatus = 'psd' | 'repaired' | 'extension-dropped' | 'not-psd';
+export type CdmCovarianceStatus = CovarianceStatus;
 
 export interface CdmCovariance extends CdmBlockInfo {
   /** Size as received: 6, or 7–9 with the drag, SRP and thrust rows. */
@@ -135,7 +138,7 @@ export interface CdmCovariance extends CdmBlockInfo {
    */
   matrix: Matrix;
   status: CdmCovarianceStatus;
-  /** The matrix to compute with (PSD; 6×6 when the extension was dropped); null if `not-psd`. */
+  /** The matrix to compute with (PSD; 6×6 when the extension was dropped); null if `not-psd` or `zero`. */
   usable: Matrix | null;
   /** Why the status is not `psd`. */
   note?: string;

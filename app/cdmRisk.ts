@@ -2,10 +2,7 @@ import type { Cdm, CdmObject } from '../core/formats/cdm/index.js';
 import { hardBodyRadiusFromAreaPc } from '../core/formats/cdm/index.js';
 import type { Matrix } from '../core/math/linalg.js';
 import type { Encounter } from '../core/events/index.js';
-import { listCdms, type KeepclearDb, type StoredCdm } from '../db/index.js';
-
-/** A screened event and a received message describe the same conjunction within this (ms). */
-export const SAME_CONJUNCTION_MS = 60_000;
+import type { StoredCdm } from '../db/index.js';
 
 /** What a received message contributes to a screened event's risk: first in precedence. */
 export interface CdmRiskInputs {
@@ -19,22 +16,11 @@ export interface CdmRiskInputs {
 }
 
 /**
- * The newest received message about the same pair (either order) with a TCA within
- * SAME_CONJUNCTION_MS, with each object's covariance mapped to the event's primary/secondary.
+ * A stored message's covariances and hard-body radii mapped to the event's primary and
+ * secondary (the message may name the pair the other way round). Which message belongs to which
+ * event is the series rule's business (app/series.ts), not this function's.
  */
-export function matchingCdm(db: KeepclearDb, e: Encounter, cache?: Map<string, StoredCdm[]>): CdmRiskInputs | null {
-  let list = cache?.get(e.primary);
-  if (!list) {
-    list = listCdms(db, { objectId: e.primary });
-    cache?.set(e.primary, list);
-  }
-  const hits = list.filter(
-    (c) =>
-      ((c.object1Id === e.primary && c.object2Id === e.secondary) || (c.object1Id === e.secondary && c.object2Id === e.primary)) &&
-      Math.abs(c.tca - e.tca) <= SAME_CONJUNCTION_MS,
-  );
-  const cdm = hits.sort((a, b) => b.creationDate - a.creationDate)[0];
-  if (!cdm) return null;
+export function cdmRiskInputs(cdm: StoredCdm, e: Encounter): CdmRiskInputs {
   const parsed = cdm.parsed as Cdm;
   const swap = cdm.object1Id !== e.primary;
   const [p, s] = swap ? [parsed.object2, parsed.object1] : [parsed.object1, parsed.object2];

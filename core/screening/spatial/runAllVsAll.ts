@@ -1,0 +1,111 @@
+/**
+ * All-vs-all screening through the spatial index (DESIGN.md "Performance targets"): every
+ * thread indexes whole blocks of time for all objects (broadPhase.ts), the candidates are
+ * grouped by pair in this thread, and the pairs are refined exactly, shared among the threads.
+ * Objects that stop propagating inside the window are screened pair by pair (engine.ts).
+ * Results are sorted by the caller (run.ts), so they do not depend on the worker count.
+ */
+import { wrap, releaseProxy, type Remote } from 'comlink';
+import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
+import type { ElementSet } from '../../elements/elementSet.js';
+import { startWorkers } from '../../workers/entry.js';
+import { packSets } from '../packedSets.js';
+import type { ChunkResult } from '../chunk.js';
+import type { WindowSettings } from '../engine.js';
+import { AllVsAllChunk, stepPlan, INDEX_STEP_MS, type BroadResult } from './chunk.js';
+import { groupByPair, type PairRegions } from './candidates.js';
+import type { ShardSpec } from './shard.js';
+import type { AllVsAllWorkerApi } from './worker.js';
+
+/** One thread's side of the work, whether a worker or this thread. */
+interface Side {
+  broad(blocks: number[], units: number[]): Promise<BroadResult> | BroadResult;
+  refine(pairs: PairRegions, units: number): Promise<ChunkResult> | ChunkResult;
+  screenPairwise(objects: number[], all: number[]): Promise<ChunkResult> | ChunkResult;
+}
+
+/**
+ * Screens every pair of `elementSets` (of one shard, if given). Progress units: the first half
+ * of `elementSets.length` for the index, the second half for refinement.
+ */
+export async function runAllVsAll(
+  elementSets: readonly ElementSet[],
+  win: WindowSettings,
+  control: Int32Array,
+  nWorkers: number,
+  shard?: ShardSpec,
+): Promise<ChunkResult[]> {
+  if (nWorkers <= 0) {
+    const c = new AllVsAllChunk(elementSets, win, control, shard);
+    return await drive([c], c, elementSets.length, win);
+  }
+  const workers = await startWorkers('./worker.ts', import.meta.url, nWorkers);
+  const apis: Remote<AllVsAllWorkerApi>[] = workers.map((w) => wrap<AllVsAllWorkerApi>(nodeEndpoint(w)));
+  try {
+    const packed = packSets(elementSets);
+    // The roles (indexed, short-lived, flagged) are computed the same way in every thread; this
+    // thread needs them too, to choose the pairwise objects.
+    const [, local] = await Promise.all([
+      Promise.all(apis.map((a) => a.init(packed, win, control.buffer as SharedArrayBuffer, shard ?? null))),
+      Promise.resolve(new AllVsAllChunk(elementSets, win, new Int32Array(new SharedArrayBuffer(8)), shard)),
+    ]);
+    return await drive(apis as unknown as Side[], local, elementSets.length, win);
+  } finally {
+    for (const a of apis) a[releaseProxy]();
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
+}
+
+async function drive(sides: Side[], local: AllVsAllChunk, total: number, win: WindowSettings): Promise<ChunkResult[]> {
+  const n = sides.length;
+  const { steps, blocks } = stepPlan(win);
+  const indexUnits = Math.floor(total / 2);
+  // Blocks interleaved among threads; each block's share of the progress units.
+  const share = (b: number) => Math.floor(((b + 1) * indexUnits) / blocks) - Math.floor((b * indexUnits) / blocks);
+  const mine = sides.map((_, w) => Array.from({ length: blocks }, (_, b) => b).filter((b) => b % n === w));
+  const broad = await Promise.all(sides.map((s, w) => s.broad(mine[w]!, mine[w]!.map(share))));
+
+  // Indexed objects whose sampling failed somewhere are screened pairwise, with the short-lived.
+  const failed = new Set(broad.flatMap((r) => r.failed));
+  const pairwise: number[] = [];
+  local.role.forEach((r, i) => {
+    if (r === 1 || failed.has(i)) pairwise.push(i);
+  });
+  const parts = broad.map((r) => r.candidates);
+  const grouped = groupByPair(failed.size > 0 ? parts.map((c) => dropObjects(c, failed)) : parts, total, steps, win.start, INDEX_STEP_MS);
+
+  // Pairs interleaved among threads (neighbouring pairs share objects and cost alike).
+  const refineUnits = total - indexUnits;
+  const nPairs = grouped.first.length;
+  const pieces = sides.map((_, w) => slicePairs(grouped, w, n));
+  const unitsOf = (w: number) => (nPairs === 0 ? (w === 0 ? refineUnits : 0) : Math.floor((pieces[w]!.first.length * refineUnits) / nPairs));
+  const refined = await Promise.all(sides.map((s, w) => s.refine(pieces[w]!, unitsOf(w))));
+  const pw = await Promise.all(sides.map((s, w) => s.screenPairwise(pairwise.filter((_, q) => q % n === w), pairwise)));
+  const stats = broad.map((b) => b.stats as unknown as Record<string, number>);
+  return sides.map((_, w) => ({
+    encounters: [...refined[w]!.encounters, ...pw[w]!.encounters],
+    flagged: [...refined[w]!.flagged, ...pw[w]!.flagged],
+    // Session statistics are cumulative per thread: the last call's are the thread's total.
+    stats: { ...stats[w], ...pw[w]!.stats, indexedObjects: w === 0 ? total - pairwise.length - local.flaggedIds().length : 0 },
+    cancelled: refined[w]!.cancelled || pw[w]!.cancelled,
+  }));
+}
+
+function dropObjects(c: BroadResult['candidates'], drop: Set<number>): BroadResult['candidates'] {
+  const keep: number[] = [];
+  for (let x = 0; x < c.i.length; x++) if (!drop.has(c.i[x]!) && !drop.has(c.j[x]!)) keep.push(x);
+  const pick = (a: Int32Array) => Int32Array.from(keep, (x) => a[x]!);
+  return { i: pick(c.i), j: pick(c.j), k: pick(c.k) };
+}
+
+/** Pairs p ≡ w (mod n), with their regions. */
+function slicePairs(g: PairRegions, w: number, n: number): PairRegions {
+  const first: number[] = [], second: number[] = [], offsets: number[] = [0], regions: number[] = [];
+  for (let p = w; p < g.first.length; p += n) {
+    first.push(g.first[p]!);
+    second.push(g.second[p]!);
+    for (let r = g.offsets[p]!; r < g.offsets[p + 1]!; r++) regions.push(g.regions[r]!);
+    offsets.push(regions.length);
+  }
+  return { first: Int32Array.from(first), second: Int32Array.from(second), offsets: Int32Array.from(offsets), regions: Float64Array.from(regions) };
+}

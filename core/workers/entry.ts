@@ -1,0 +1,23 @@
+import { Worker } from 'node:worker_threads';
+
+/**
+ * Starts worker threads on a module next to the caller, given as its TypeScript name.
+ *
+ * The shipped program runs compiled JavaScript (dist/, built at install time): there the caller
+ * itself is a .js file and the worker is the compiled .js beside it, started directly — no
+ * compiling or bundling at run time. Only when running from the TypeScript sources (tests
+ * under vitest, `node --import tsx` benchmarks) is the worker bundled with esbuild once per
+ * process (bundle.ts), or, without esbuild, started through the TypeScript loader.
+ */
+export async function startWorkers(tsName: string, callerUrl: string, count: number): Promise<Worker[]> {
+  if (!callerUrl.endsWith('.ts')) {
+    const compiled = new URL(tsName.replace(/\.ts$/, '.js'), callerUrl);
+    return Array.from({ length: count }, () => new Worker(compiled));
+  }
+  // Imported here only: the compiled program never loads the bundler or the loader.
+  const { bundledWorker } = await import('./bundle.js');
+  const { spawnTsWorker } = await import('./spawn.js');
+  const entry = new URL(tsName, callerUrl);
+  const script = await bundledWorker(entry);
+  return Array.from({ length: count }, () => (script ? new Worker(script) : spawnTsWorker(entry)));
+}

@@ -1,0 +1,220 @@
+/**
+ * Series storage (schema v4): which series each event belongs to, each series' state, and the
+ * run facts linking needs (when a run's data was created, what a screening run covered).
+ * The linking itself is core/events/seriesLink.ts; the service that calls it is app/series.ts.
+ */
+import type { ScreeningCoverage, SeriesMember, SeriesSourceKind, SeriesState } from '../core/events/index.js';
+import type { ConjunctionEvent } from '../core/events/index.js';
+import type { ScreeningVolume } from '../core/screening/types.js';
+import { instantFromMs, type Instant } from '../core/time/instant.js';
+import type { KeepclearDb } from './connection.js';
+import { eventFromRow, type EventRow } from './events.js';
+
+/** Runs whose events are sightings of a conjunction. Plan runs are hypothetical: never linked. */
+export const LINKED_RUN_KINDS = ['screening', 'merge', 'cdm'] as const;
+/** A cancelled run's events were found all the same; only a done run tells what it did NOT find. */
+const LINKED_STATUSES = "('done', 'cancelled')";
+const LINKED_KINDS = "('screening', 'merge', 'cdm')";
+
+export interface StoredSeries {
+  readonly id: string;
+  readonly primary: string;
+  readonly secondary: string;
+  readonly founderEventId: string;
+  readonly state: SeriesState;
+  /** TCA of the newest sighting */
+  readonly tca: Instant;
+  readonly sightings: number;
+  readonly lastEventId: string;
+  readonly lastDataAt: Instant;
+  readonly missedByRun: string | null;
+  /** the newest data time the state was judged at */
+  readonly asOf: Instant;
+}
+
+interface SeriesRow {
+  id: string;
+  primary_id: string;
+  secondary_id: string;
+  founder_event_id: string;
+  state: SeriesState;
+  tca_ms: number;
+  sightings: number;
+  last_event_id: string;
+  last_data_at: number;
+  missed_by_run: string | null;
+  as_of: number;
+}
+
+const seriesFromRow = (r: SeriesRow): StoredSeries => ({
+  id: r.id,
+  primary: r.primary_id,
+  secondary: r.secondary_id,
+  founderEventId: r.founder_event_id,
+  state: r.state,
+  tca: instantFromMs(r.tca_ms),
+  sightings: r.sightings,
+  lastEventId: r.last_event_id,
+  lastDataAt: instantFromMs(r.last_data_at),
+  missedByRun: r.missed_by_run,
+  asOf: instantFromMs(r.as_of),
+});
+
+type SightingRow = EventRow & { run_kind: string; run_data_at: number };
+
+const memberOf = (r: SightingRow): SeriesMember => ({
+  event: eventFromRow(r),
+  source: {
+    id: r.run_id,
+    // a merge of shards is a screening run as far as series go
+    kind: (r.run_kind === 'cdm' ? 'cdm' : 'screening') satisfies SeriesSourceKind,
+    createdAt: instantFromMs(r.run_data_at),
+  },
+});
+
+const SIGHTING_SELECT = `SELECT e.*, r.kind AS run_kind, COALESCE(r.data_at, r.created_at) AS run_data_at
+   FROM events e JOIN runs r ON r.id = e.run_id`;
+
+/** The stored sightings of one unordered pair (either order), in any order. */
+export function sightingsOfPair(db: KeepclearDb, a: string, b: string): SeriesMember[] {
+  const rows = db
+    .stmt(
+      `${SIGHTING_SELECT}
+        WHERE ((e.primary_id = @a AND e.secondary_id = @b) OR (e.primary_id = @b AND e.secondary_id = @a))
+          AND r.kind IN ${LINKED_KINDS} AND r.status IN ${LINKED_STATUSES}`,
+    )
+    .all({ a, b }) as SightingRow[];
+  return rows.map(memberOf);
+}
+
+/** The sightings of one run (nothing when the run is of a kind or status that is not linked). */
+export function sightingsOfRun(db: KeepclearDb, runId: string): SeriesMember[] {
+  const rows = db
+    .stmt(`${SIGHTING_SELECT} WHERE e.run_id = ? AND r.kind IN ${LINKED_KINDS} AND r.status IN ${LINKED_STATUSES}`)
+    .all(runId) as SightingRow[];
+  return rows.map(memberOf);
+}
+
+/** Pairs (as stored) that hold events not yet linked: events stored before schema v4, or an interrupted link. */
+export function unlinkedPairs(db: KeepclearDb): [string, string][] {
+  const rows = db
+    .stmt(
+      `SELECT DISTINCT e.primary_id AS p, e.secondary_id AS s FROM events e JOIN runs r ON r.id = e.run_id
+        WHERE e.series_id IS NULL AND r.kind IN ${LINKED_KINDS} AND r.status IN ${LINKED_STATUSES}`,
+    )
+    .all() as { p: string; s: string }[];
+  return rows.map((r) => [r.p, r.s]);
+}
+
+/** Writes series ids of events (the linker's `reassigned`). */
+export function setEventSeries(db: KeepclearDb, assignments: ReadonlyMap<string, string>): void {
+  const set = db.stmt('UPDATE events SET series_id = ? WHERE id = ?');
+  for (const [eventId, seriesId] of assignments) set.run(seriesId, eventId);
+}
+
+/** Inserts or replaces series rows. */
+export function putSeries(db: KeepclearDb, rows: readonly StoredSeries[], now: number = Date.now()): void {
+  const put = db.stmt(
+    `INSERT INTO series (id, primary_id, secondary_id, founder_event_id, state, tca_ms, sightings, last_event_id,
+       last_data_at, missed_by_run, as_of, updated_at)
+     VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+     ON CONFLICT (id) DO UPDATE SET primary_id = excluded.primary_id, secondary_id = excluded.secondary_id,
+       founder_event_id = excluded.founder_event_id, state = excluded.state, tca_ms = excluded.tca_ms,
+       sightings = excluded.sightings, last_event_id = excluded.last_event_id, last_data_at = excluded.last_data_at,
+       missed_by_run = excluded.missed_by_run, as_of = excluded.as_of, updated_at = excluded.updated_at`,
+  );
+  for (const s of rows) {
+    put.run(s.id, s.primary, s.secondary, s.founderEventId, s.state, s.tca, s.sightings, s.lastEventId,
+      s.lastDataAt, s.missedByRun, s.asOf, now);
+  }
+}
+
+/** Removes series that no longer exist (re-founded or merged into another when a pair was relinked). */
+export function deleteSeries(db: KeepclearDb, ids: readonly string[]): void {
+  const del = db.stmt('DELETE FROM series WHERE id = ?');
+  for (const id of ids) del.run(id);
+}
+
+export function getSeries(db: KeepclearDb, id: string): StoredSeries | null {
+  const row = db.stmt('SELECT * FROM series WHERE id = ?').get(id) as SeriesRow | undefined;
+  return row ? seriesFromRow(row) : null;
+}
+
+export interface SeriesFilter {
+  readonly states?: readonly SeriesState[];
+  readonly objectId?: string;
+}
+
+/** Series by TCA of their newest sighting, optionally of some states or of one object. */
+export function listSeries(db: KeepclearDb, filter: SeriesFilter = {}): StoredSeries[] {
+  const rows = db
+    .stmt(
+      `SELECT * FROM series
+        WHERE (@states IS NULL OR state IN (SELECT value FROM json_each(@states)))
+          AND (@object IS NULL OR primary_id = @object OR secondary_id = @object)
+        ORDER BY tca_ms, id`,
+    )
+    .all({ states: filter.states ? JSON.stringify(filter.states) : null, object: filter.objectId ?? null }) as SeriesRow[];
+  return rows.map(seriesFromRow);
+}
+
+/**
+ * The events of a series in the order their data was created (a message's CREATION_DATE, a
+ * run's time), ties by run id then event id: the same order as core's compareByData.
+ */
+export function eventsOfSeries(db: KeepclearDb, seriesId: string): SeriesMember[] {
+  const rows = db
+    .stmt(`${SIGHTING_SELECT} WHERE e.series_id = ? ORDER BY run_data_at, e.run_id, e.id`)
+    .all(seriesId) as SightingRow[];
+  return rows.map(memberOf);
+}
+
+/** Series ids of some events (events without one are left out). */
+export function seriesIdsOfEvents(db: KeepclearDb, eventIds: readonly string[]): Map<string, string> {
+  const get = db.stmt('SELECT series_id FROM events WHERE id = ?').pluck();
+  const out = new Map<string, string>();
+  for (const id of eventIds) {
+    const s = get.get(id) as string | null | undefined;
+    if (typeof s === 'string') out.set(id, s);
+  }
+  return out;
+}
+
+/**
+ * What every finished screening run covered (window, primaries, objects left out), dated by its
+ * data time: enough to tell whether a run should have seen a conjunction (seriesStatus).
+ */
+export function screeningCoverage(db: KeepclearDb): ScreeningCoverage[] {
+  const rows = db
+    .stmt(
+      `SELECT id, COALESCE(data_at, created_at) AS data_at, start_ms, end_ms, primaries_json, volume_json FROM runs
+        WHERE kind IN ('screening', 'merge') AND status = 'done'`,
+    )
+    .all() as { id: string; data_at: number; start_ms: number; end_ms: number; primaries_json: string; volume_json: string }[];
+  const flagged = db.stmt('SELECT object_id FROM run_flagged WHERE run_id = ?').pluck();
+  return rows.map((r) => ({
+    id: r.id,
+    createdAt: instantFromMs(r.data_at),
+    start: instantFromMs(r.start_ms),
+    end: instantFromMs(r.end_ms),
+    primaries: JSON.parse(r.primaries_json) as string[] | 'all',
+    flagged: flagged.all(r.id) as string[],
+    volume: JSON.parse(r.volume_json) as ScreeningVolume,
+  }));
+}
+
+/** The newest data time of any linked run (screening runs and received messages); null when none. */
+export function newestDataAt(db: KeepclearDb): Instant | null {
+  const t = db
+    .stmt(`SELECT MAX(COALESCE(data_at, created_at)) FROM runs WHERE kind IN ${LINKED_KINDS} AND status IN ${LINKED_STATUSES}`)
+    .pluck()
+    .get() as number | null;
+  return t === null ? null : instantFromMs(t);
+}
+
+/** An event with its run's data time: what reports and the CLI need for one series' list. */
+export type SeriesEvent = ConjunctionEvent & { readonly dataAt: Instant; readonly sourceKind: SeriesSourceKind };
+
+export function seriesEventsOf(members: readonly SeriesMember[]): SeriesEvent[] {
+  return members.map((m) => ({ ...m.event, dataAt: m.source.createdAt, sourceKind: m.source.kind }));
+}
