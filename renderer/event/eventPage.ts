@@ -3,7 +3,7 @@
  * 3-D view, the encounter-plane and RTN plots (SVG drawn by the host from the reports' specs),
  * the manoeuvre panel, report and export — the caution wherever a decision is shown.
  */
-import type { EventRow, EventView } from '../../core/bridge/contract.js';
+import type { EventRow, EventView, ExportFormat } from '../../core/bridge/contract.js';
 import type { PageBridge } from '../bridge.js';
 import { byId, el, messageOf, saveText } from '../dom.js';
 import { tierDisplay } from '../format.js';
@@ -37,6 +37,8 @@ export class EventPage {
     planGo: byId('plan-go', HTMLButtonElement),
     planMiss: byId('plan-miss', HTMLInputElement),
     planPc: byId('plan-pc', HTMLInputElement),
+    planMass: byId('plan-mass', HTMLInputElement),
+    planIsp: byId('plan-isp', HTMLInputElement),
     planResult: byId('plan-result', HTMLDivElement),
     report: byId('event-report', HTMLButtonElement),
     exportFormat: byId('export-format', HTMLSelectElement),
@@ -48,7 +50,7 @@ export class EventPage {
     private readonly jobs: JobsView,
     private readonly status: (text: string, isError?: boolean) => void,
   ) {
-    this.scene = new Scene3dPanel(bridge, byId('view3d', HTMLDivElement), byId('scrub', HTMLInputElement), byId('scrub-out', HTMLOutputElement));
+    this.scene = new Scene3dPanel(bridge, byId('view3d', HTMLDivElement));
     this.ui.planForm.addEventListener('submit', (e) => {
       e.preventDefault();
       void this.plan();
@@ -102,6 +104,8 @@ export class EventPage {
         ? el('ul', {}, ...v.messages.map((m) => el('li', { text: `${m.originator} ${m.messageId}, created ${m.creationDate}: miss ${m.missDistanceM.toFixed(1)} m, reported Pc ${m.reportedPc === null ? '—' : m.reportedPc.toExponential(2)}` })))
         : el('p', { text: 'No received message is linked to this event.' }),
     );
+    this.ui.planMass.value = v.spacecraft.massKg === null ? '' : String(v.spacecraft.massKg);
+    this.ui.planIsp.value = v.spacecraft.ispS === null ? '' : String(v.spacecraft.ispS);
     this.ui.series.textContent = v.series ? `${v.series.id}: ${v.series.state} (${v.series.sightings} sighting${v.series.sightings === 1 ? '' : 's'})` : 'Not part of a recorded series.';
     this.ui.plots.replaceChildren(
       ...v.plots.map((p) => {
@@ -119,9 +123,15 @@ export class EventPage {
     if (!e) return;
     const byMiss = (this.ui.planForm.elements.namedItem('target') as RadioNodeList).value === 'miss';
     const pc = Number(this.ui.planPc.value);
-    const req = byMiss
-      ? { kind: 'plan' as const, eventId: e.id, targetMissKm: this.ui.planMiss.valueAsNumber }
-      : { kind: 'plan' as const, eventId: e.id, targetPc: pc };
+    const mass = this.ui.planMass.valueAsNumber;
+    const isp = this.ui.planIsp.valueAsNumber;
+    const req = {
+      kind: 'plan' as const,
+      eventId: e.id,
+      ...(byMiss ? { targetMissKm: this.ui.planMiss.valueAsNumber } : { targetPc: pc }),
+      ...(Number.isFinite(mass) ? { massKg: mass } : {}),
+      ...(Number.isFinite(isp) ? { ispS: isp } : {}),
+    };
     this.ui.planGo.disabled = true;
     this.ui.planResult.replaceChildren(el('p', { text: 'Planning… (progress above)' }));
     try {
@@ -149,6 +159,15 @@ export class EventPage {
   }
 
   private async export(): Promise<void> {
-    this.status('Export is not available in this build yet.', true);
+    const e = this.current;
+    if (!e) return;
+    const format = this.ui.exportFormat.value as ExportFormat;
+    try {
+      const doc = await this.bridge.invoke('exports.make', { eventId: e.id, format });
+      saveText(doc.fileName, doc.mediaType, doc.text);
+      this.status(`${e.id} exported as ${doc.fileName}`);
+    } catch (err) {
+      this.status(`Could not export ${e.id}: ${messageOf(err)}`, true);
+    }
   }
 }
