@@ -19,7 +19,7 @@ try {
   const events = eventsOfRun(db, run.id);
   const slow = new Set<string>();
   const time = (model: 'auto' | '2d'): { ms: number; slowMs: number; methods: Map<string, number> } => {
-    const ctx = new RiskContext(db, { encounterModel: model });
+    const ctx = new RiskContext(db, new Map(), { encounterModel: model });
     for (const e of events.slice(0, 5)) ctx.assess(e); // warm the JIT and the history cache
     const methods = new Map<string, number>();
     let slowMs = 0;
