@@ -15,7 +15,7 @@ import { runScreening } from '../core/screening/run.js';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import type { Instant } from '../core/time/instant.js';
 import { benchDemoWorld } from './demoWorld.js';
-import { benchSeries } from './series.js';
+import { benchSeries, benchSeriesService } from './series.js';
 
 const SIZE = Number(process.env.BENCH_SIZE ?? 30_000);
 const START = Date.parse('2026-12-07T00:00:00.000Z') as Instant;
@@ -61,7 +61,10 @@ function measureDistanceCost(): void {
 }
 
 async function main(): Promise<void> {
-  if (want('series')) benchSeries();
+  if (want('series')) {
+    benchSeries();
+    await benchSeriesService();
+  }
   if (want('world')) benchDemoWorld();
   if (cases.length > 0 && cases.every((c) => c === 'series' || c === 'world')) return;
   const workers = availableParallelism();
