@@ -12,6 +12,7 @@ import {
   getObject,
   getRun,
   getSetting,
+  latestPlanOfEvent,
   listCdms,
   type KeepclearDb,
   type RunRecord,
@@ -19,6 +20,7 @@ import {
 import { RiskContext, TIER_SETTINGS_KEY } from '../risk.js';
 import { tryEnsureLinked } from '../series.js';
 import { runChangesModel, seriesModelOfEvent } from './seriesModel.js';
+import { planModelOf } from './planModel.js';
 import type {
   CatalogueNote,
   EncounterPlaneInput,
@@ -51,7 +53,7 @@ export interface ReportOptions {
 export interface EventReportOptions extends ReportOptions {
   /** the event's series (trend and RTN plots); default: the event's own series; null: none */
   readonly series?: SeriesModel | null;
-  /** a manoeuvre plan for the event; the plan feature fills it */
+  /** a manoeuvre plan for the event; default: the event's newest stored plan (keepclear plan), null for none */
   readonly plan?: PlanModel | null;
 }
 
@@ -235,6 +237,11 @@ function eventFacts(e: ConjunctionEvent, fromCdm: boolean, run: RunRecord | null
   return facts;
 }
 
+function storedPlan(db: KeepclearDb, eventId: string): PlanModel | null {
+  const p = latestPlanOfEvent(db, eventId);
+  return p ? planModelOf(p) : null;
+}
+
 export function eventReportModelFromDb(db: KeepclearDb, eventId: string, opts: EventReportOptions = {}): EventReportModel {
   if (opts.series === undefined) tryEnsureLinked(db);
   const e = getEvent(db, eventId);
@@ -266,7 +273,7 @@ export function eventReportModelFromDb(db: KeepclearDb, eventId: string, opts: E
     })),
     // the caller's series when given (null: none), else the event's own from the linking service
     series: opts.series !== undefined ? opts.series : seriesModelOfEvent(db, e.id, e.seriesId),
-    plan: opts.plan ?? null,
+    plan: opts.plan !== undefined ? opts.plan : storedPlan(db, e.id),
     thresholds: { pcPlan: t.pcPlan, pcMonitor: t.pcMonitor },
     caution: DECISION_AID_NOTE,
   };

@@ -155,9 +155,25 @@ export interface PlanModel {
     readonly achievedPc: number | null;
     readonly propellantKg: number | null;
   };
-  readonly trade: readonly { readonly leadTimeS: number; readonly deltaVMs: number; readonly achievedMissKm: number; readonly achievedPc?: number | null }[];
+  readonly trade: readonly { readonly leadTimeS: number; readonly deltaVMs: number; readonly achievedMissKm: number; readonly achievedPc?: number | null; readonly direction?: string }[];
+  /** every row of the sweep (each lead time × direction; Δv null where the target was not met), for the Δv-against-lead-time plot */
+  readonly tradeByDirection?: readonly { readonly leadTimeS: number; readonly direction: string; readonly deltaVMs: number | null }[];
+  /** the primary's orbital period (s): lead times in orbits */
+  readonly periodS?: number;
   /** how the proposal was checked (e.g. "numerical propagation, two-body + J2..J4 + drag") */
-  readonly verification?: { readonly method: string; readonly missKm: number; readonly pc: number | null; readonly notes?: readonly string[] } | null;
+  readonly verification?: {
+    readonly method: string;
+    readonly missKm: number;
+    readonly pc: number | null;
+    readonly notes?: readonly string[];
+    /** the integrated manoeuvred primary itself against the secondary, for comparison */
+    readonly fullyNumerical?: { readonly missKm: number; readonly pc: number | null } | null;
+  } | null;
+  /** when the plan was made, and the encounter without a burn */
+  readonly createdAt?: string;
+  readonly original?: { readonly tca: string; readonly missKm: number; readonly pc: number | null };
+  /** re-screen of the manoeuvred trajectory: objects screened and approaches found (new or not) */
+  readonly rescreen?: { readonly objects: number; readonly approaches: number; readonly start: string; readonly end: string } | null;
   readonly newApproaches: readonly { readonly secondary: string; readonly tca: string; readonly missKm: number; readonly pc?: number | null }[];
 }
 

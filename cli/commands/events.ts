@@ -34,7 +34,7 @@ export default defineCommand<EventsOptions>({
     if (o.run !== undefined && o.series !== undefined) {
       throw new KeepclearError('BAD_ARGUMENT', 'give either --run or --series, not both');
     }
-    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns, latestPlanSummaries } = await import('../../db/index.js');
+    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns, latestPlanSummaries, runEphemerides } = await import('../../db/index.js');
     const { planCell, planSummaryToJson } = await import('../../app/plan/summary.js');
     const { eventToJson, runToJson } = await import('../../app/eventJson.js');
     const { tryEnsureLinked, seriesView, countByState } = await import('../../app/series.js');
@@ -68,7 +68,7 @@ export default defineCommand<EventsOptions>({
       const plans = latestPlanSummaries(db, events.map((e) => e.id));
       if (o.json !== undefined) {
         writeJsonWithCaution(o.json, {
-          run: run ? runToJson(run) : null,
+          run: run ? runToJson(run, run.flagged, runEphemerides(db, run.id)) : null,
           // Extras (e.g. a message's reported Pc, kept apart from Keepclear's own) ride along.
           // plan: the event's newest manoeuvre plan (keepclear plan), null when none.
           events: events.map((e) => {
