@@ -25,6 +25,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runToJson } from '../app/eventJson.js';
 import { KeepclearError } from '../core/errors.js';
 import { importFile } from '../app/import/index.js';
+import { RiskContext } from '../app/risk.js';
 import { screenAndStore, type ScreenResult } from '../app/screen.js';
 import { formatOemKvn, sampleOem, type Oem } from '../core/formats/oem/index.js';
 import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
@@ -141,6 +142,8 @@ describe('the OEM\'s covariance is the primary\'s covariance for Pc', () => {
         expect(c[1][1]).toBeCloseTo(90000, 6);
         expect(c[2][2]).toBeCloseTo(400, 6);
         expect(e.risk!.warnings.join(' ')).toMatch(/not propagated to the requested time/);
+        // Assessed again later (as when a message joins its series), the stored event keeps it.
+        expect(new RiskContext(db).assess(e).covarianceSource).toBe(e.risk!.covarianceSource);
       }
     } finally {
       db.close();
