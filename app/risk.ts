@@ -24,11 +24,13 @@ export class RiskContext {
   /**
    * `ephemerides`: the owner ephemerides a run screened from, by object id; an ephemeris's
    * covariance block (the latest at or before TCA) is then that object's covariance, after a
-   * received CDM and before the element-set history.
+   * received CDM and before the element-set history. `encounterModel`: see
+   * AssessInputs.encounterModel ('auto' by default: 3-D Pc where the short-encounter assumption fails).
    */
   constructor(
     private readonly db: KeepclearDb,
     private readonly ephemerides: ReadonlyMap<string, EphemerisTrajectory> = new Map(),
+    private readonly options: { readonly encounterModel?: 'auto' | '2d' } = {},
   ) {
     this.thresholds = (getSetting(db, TIER_SETTINGS_KEY) as Partial<TierThresholds> | undefined) ?? undefined;
   }
@@ -96,6 +98,7 @@ export class RiskContext {
       hbrPrimaryM: cdm?.hbrPrimaryM ?? getObject(this.db, e.primary)?.hardBodyRadiusM ?? null,
       hbrSecondaryM: cdm?.hbrSecondaryM ?? getObject(this.db, e.secondary)?.hardBodyRadiusM ?? null,
       ...(this.thresholds ? { thresholds: this.thresholds } : {}),
+      ...(this.options.encounterModel ? { encounterModel: this.options.encounterModel } : {}),
     });
   }
 }

@@ -4,7 +4,7 @@ import { runScreening } from '../core/screening/run.js';
 import type { ScreeningSettings } from '../core/screening/types.js';
 import type { ConjunctionEvent } from '../core/events/index.js';
 import {
-  catalogFingerprint,
+  fingerprintOfSets,
   createRun,
   finishRun,
   eventsOfRun,
@@ -69,7 +69,8 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
       throw new KeepclearError('NOT_FOUND', `no element set or covering ephemeris for primary ${missing.join(', ')}; import one first or check the id`);
     }
   }
-  const runId = createRun(db, req.settings, catalogFingerprint(db), sets.length);
+  // The fingerprint of the sets already loaded: reading the catalogue twice cost as much as the load.
+  const runId = createRun(db, req.settings, fingerprintOfSets(sets), sets.length);
   let outcome;
   try {
     outcome = await runScreening(sets, req.settings, {

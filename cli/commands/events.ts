@@ -37,14 +37,15 @@ export default defineCommand<EventsOptions>({
     const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns, latestPlanSummaries, runEphemerides } = await import('../../db/index.js');
     const { planCell, planSummaryToJson } = await import('../../app/plan/summary.js');
     const { eventToJson, runToJson } = await import('../../app/eventJson.js');
-    const { ensureLinked, seriesView, countByState } = await import('../../app/series.js');
+    const { tryEnsureLinked, seriesView, countByState } = await import('../../app/series.js');
     const { seriesStatesOf, seriesToJson } = await import('../../app/seriesJson.js');
     const { eventSummary } = await import('../present/events.js');
     const { seriesCounts, seriesSummary } = await import('../present/series.js');
     const { writeJsonWithCaution } = await import('../present/json.js');
     const db = openDatabase(o.db ?? defaultDbPath());
     try {
-      linkIfWritable(db, ensureLinked);
+      // Events stored before series existed are linked on first read.
+      tryEnsureLinked(db);
       if (o.series !== undefined) {
         const view = seriesView(db, o.series);
         if (!view) throw new KeepclearError('NOT_FOUND', `no series "${o.series}"; every event's seriesId is in keepclear events --json -`);
@@ -94,15 +95,3 @@ export default defineCommand<EventsOptions>({
     }
   },
 });
-
-/**
- * Events stored before series existed are linked on first read; a database that cannot be
- * written (read-only file, held lock) is still shown, without the missing series ids.
- */
-function linkIfWritable(db: import('../../db/index.js').KeepclearDb, link: (d: typeof db) => unknown): void {
-  try {
-    link(db);
-  } catch (err) {
-    if (!(err instanceof KeepclearError && err.code.startsWith('DATABASE_'))) throw err;
-  }
-}

@@ -127,11 +127,13 @@ function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch:
 }
 
 /**
- * Risk of one encounter. Covariance per object: CDM → owner ephemeris (OEM) → element-set history → default table.
- * With both covariances usable: short-encounter 2-D Pc. When a covariance is missing or
- * "doubtful" (non-finite, asymmetric, or indefinite beyond rounding — see covariancePsd.ts; or
- * the projected 2×2 is singular): maximum Pc over an isotropic covariance of unknown size
- * (Alfano 2005), which is an upper bound and says so in pcMethod.
+ * Risk of one encounter. Covariance per object: CDM → owner ephemeris (OEM) → element-set history → default table, each
+ * judged by the one PSD policy (covariancePsd.ts). With both covariances usable: the short-
+ * encounter 2-D Pc, or — where the short-encounter check (shortEncounter.ts) fails and
+ * encounterModel is 'auto' — the 3-D Pc (pc3d.ts, Coppola 2012), named in pcMethod with the 2-D
+ * value in the warnings. When a covariance is missing or refused (not PSD beyond rounding, all
+ * zero, non-finite, asymmetric; or the projected 2×2 is singular): maximum Pc over an isotropic
+ * covariance of unknown size (Alfano 2005), which is an upper bound and says so in pcMethod.
  */
 export function assessEncounter(encounter: Encounter, inputs: AssessInputs): RiskAssessment {
   const thresholds = { ...DEFAULT_TIER_THRESHOLDS, ...inputs.thresholds };
