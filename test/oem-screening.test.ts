@@ -127,6 +127,28 @@ function withCovariance(epoch: number, sigmaKm: [number, number, number]) {
   };
 }
 
+describe('an OEM that starts exactly at the window start (and ends 1 h after its end)', () => {
+  it('finds the same events as SGP4: sampling starts where the ephemeris does', async () => {
+    const sgp4Db = freshDb();
+    const oemDb = freshDb();
+    try {
+      const a = await screen(sgp4Db, fleet);
+      fleet.forEach((id) => importOem(oemDb, `exact-${id}.oem`, start, end + HOUR, undefined, id));
+      const b = await screen(oemDb, fleet);
+      expect(b.run.flagged).toEqual([]);
+      expect(b.ephemerides).toHaveLength(fleet.length);
+      expect(b.events.map((e) => `${e.primary}-${e.secondary}`)).toEqual(a.events.map((e) => `${e.primary}-${e.secondary}`));
+      a.events.forEach((x, k) => {
+        expect(Math.abs(b.events[k]!.tca - x.tca)).toBeLessThan(TCA_TOL_MS);
+        expect(Math.abs(b.events[k]!.missKm - x.missKm)).toBeLessThan(MISS_TOL_KM);
+      });
+    } finally {
+      sgp4Db.close();
+      oemDb.close();
+    }
+  });
+});
+
 describe('the OEM\'s covariance is the primary\'s covariance for Pc', () => {
   it('takes the block at or before TCA, in RTN, and names the file in covarianceSource', async () => {
     const db = freshDb();
@@ -157,13 +179,24 @@ describe('a window the ephemeris does not cover', () => {
     try {
       const file = importOem(db, 'short.oem', start - HOUR, start + 24 * HOUR);
       await expect(screen(db)).rejects.toThrow(
-        new RegExp(`ephemeris does not cover ${toIso((start + 24 * HOUR) as Instant)} to ${toIso(end)} for primary ${primary}`),
+        // screening needs the ephemeris up to 1 h past the window's end (EPHEMERIS_END_MARGIN_MS)
+        new RegExp(`ephemeris does not cover ${toIso((start + 24 * HOUR) as Instant)} to ${toIso((end + HOUR) as Instant)} for primary ${primary}`),
       );
       const err = (await screen(db).then(() => null, (e: unknown) => e)) as KeepclearError;
       expect(err).toBeInstanceOf(KeepclearError);
       expect(err.code).toBe('EPHEMERIS_GAP');
       expect(err.toLine().startsWith(`${file}:1: `)).toBe(true);
       expect(listRuns(db, 10)).toEqual([]);
+    } finally {
+      db.close();
+    }
+  });
+
+  it('an ephemeris that stops at the window end lacks the 1-h margin screening needs, and says so', async () => {
+    const db = freshDb();
+    try {
+      importOem(db, 'to-the-end.oem', start, end);
+      await expect(screen(db)).rejects.toThrow(/screening needs the ephemeris up to 1 h past the window end/);
     } finally {
       db.close();
     }
