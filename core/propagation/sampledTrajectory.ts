@@ -146,16 +146,22 @@ export function sampleTrajectory(
     const f = traj.stateInto(from, scratch, 0);
     stepMs = f ? MIN_STEP_MS : sampleStepMs(scratch);
   }
-  const breaks = (traj.breaks ?? []).filter((b) => b > from && b < to).sort((a, b) => a - b);
+  // A source with a bounded span (an owner ephemeris) is sampled only inside it: nothing before
+  // its start, and its end is treated like a break (nodes stop at or before it; the last window
+  // serves the < 1 step left), never sampled past it.
+  const lo = traj.span && traj.span.start > from ? Math.ceil(traj.span.start) : (from as number);
+  const hi = traj.span && traj.span.end < to ? Math.floor(traj.span.end) : (to as number);
+  const hardEnd = hi < to;
+  const breaks = (traj.breaks ?? []).filter((b) => b > lo && b < hi).sort((a, b) => a - b);
   const values = options.buffer ?? new Float64Array(sampleCapacity(from, to, stepMs, breaks.length));
-  const bounds = [from as number, ...breaks, to as number];
+  const bounds = [lo, ...breaks, hi];
   const pieces: SamplePiece[] = [];
   let node = 0, failure: FailureReason | null = null;
   let vMax = 0, rMin = Infinity, rMax = 0, aMax = 0;
   const h = Math.max(1, Math.round(stepMs));
   for (let p = 0; p + 1 < bounds.length && !failure; p++) {
-    const a = bounds[p]!, isLast = p + 2 === bounds.length;
-    const b = isLast ? bounds[p + 1]! : bounds[p + 1]! - BREAK_EDGE_MS;
+    const a = bounds[p]!, isLast = p + 2 === bounds.length && !hardEnd;
+    const b = isLast || p + 2 === bounds.length ? bounds[p + 1]! : bounds[p + 1]! - BREAK_EDGE_MS;
     const t0 = Math.ceil(a);
     if (!(b > t0)) continue;
     // A short piece gets a shorter (whole-ms) step, so that it still has a full window.
