@@ -43,6 +43,8 @@ export type ErrorCode =
   | 'OPM_STRUCTURE'
   // propagation
   | 'PROPAGATION_FAILED'
+  /** an owner ephemeris does not cover the screening window (never extrapolated) */
+  | 'EPHEMERIS_GAP'
   // manoeuvre planning
   | 'SPACECRAFT_PARAMETER_MISSING'
   // arguments and runs

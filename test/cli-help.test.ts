@@ -18,7 +18,7 @@ const EXPECTED: Record<string, string[]> = {
     '--attention-tier', '--attention-exit', '--attention-file'],
   events: ['--db', '--run', '--series', '--json', '--all-events'],
   report: ['--run', '--event', '--out', '--db'],
-  export: ['--event', '--run', '--format', '--out', '--db'],
+  export: ['--event', '--run', '--series', '--format', '--out', '--db'],
   demo: ['--out', '--size', '--workers', '--all-events'],
   plan: ['--event', '--target-miss-km', '--target-pc', '--db', '--json', '--oem', '--opm'],
   spacecraft: ['--id', '--mass-kg', '--isp-s', '--db', '--json'],

@@ -100,7 +100,8 @@ function pcCallbackFor(db: KeepclearDb, e: ConjunctionEvent, notes: string[]): {
   // assessEncounter sums two radii: halves of the combined one sum to it exactly.
   const half = Number.isFinite(risk.hardBodyRadiusM) ? risk.hardBodyRadiusM / 2 : null;
   const pcOf: PcCallback = (enc: Encounter) =>
-    assessEncounter(enc, { primary: { cdmRtnM2: p }, secondary: { cdmRtnM2: s }, hbrPrimaryM: half, hbrSecondaryM: half, method }).pc;
+    // encounterModel '2d': the solver compares hundreds of moved encounters by one method (named below).
+    assessEncounter(enc, { primary: { cdmRtnM2: p }, secondary: { cdmRtnM2: s }, hbrPrimaryM: half, hbrSecondaryM: half, method, encounterModel: '2d' }).pc;
   const pcMethod = maxPc
     ? `maximum Pc (no usable covariance, as in the event's assessment), hard-body radius ${risk.hardBodyRadiusM} m`
     : `2-D ${method} Pc with the event's covariances (${risk.covarianceSource}) held fixed in RTN, hard-body radius ${risk.hardBodyRadiusM} m`;

@@ -149,6 +149,7 @@ export default defineCommand<ScreenOptions>({
     const { eventSummary } = await import('../present/events.js');
     const { writeJsonWithCaution } = await import('../present/json.js');
     const { progress } = await import('../present/progress.js');
+    const { describeEphemeris } = await import('../../app/ephemerisText.js');
 
     const jsonOnly = o.json === '-';
     const db = openDatabase(o.db ?? defaultDbPath());
@@ -165,17 +166,20 @@ export default defineCommand<ScreenOptions>({
         presentImportTotal(summary, out);
         if (!summary.clean) exit = 1;
       }
-      const { run, events } = await screenAndStore(db, {
+      const { run, events, ephemerides, notes } = await screenAndStore(db, {
         settings,
         ...(o.workers !== undefined ? { workers: o.workers } : {}),
         onProgress: bar.update,
         signal: controller.signal,
       });
       bar.stop();
+      // Which source each primary was screened from, on stderr (stdout may carry only JSON).
+      for (const e of ephemerides) process.stderr.write(`primary ${e.objectId}: ephemeris: ${describeEphemeris(e)}\n`);
+      for (const n of notes) process.stderr.write(`keepclear: ${n}\n`);
       for (const f of run.flagged) process.stderr.write(`keepclear: flagged ${f.id}: ${f.reason}\n`);
       if (run.status === 'cancelled') process.stderr.write('keepclear: screening cancelled; partial results stored\n');
       const states = seriesStatesOf(db, events);
-      if (o.json !== undefined) writeJsonWithCaution(o.json, { run: runToJson(run), events: events.map((e) => eventToJson(e, states)) });
+      if (o.json !== undefined) writeJsonWithCaution(o.json, { run: runToJson(run, run.flagged, ephemerides), events: events.map((e) => eventToJson(e, states)) });
       const attention = attentionOf(events, o.attentionTier ?? DEFAULT_ATTENTION_TIER);
       if (o.attentionFile !== undefined) {
         // A cancelled run saw only part of the window: it can raise the flag, never clear it.

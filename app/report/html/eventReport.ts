@@ -97,12 +97,31 @@ export async function renderEventReportHtml(m: EventReportModel): Promise<string
     : `<p class="none" data-plot-missing="encounter-plane">${esc(m.planeNote ?? 'No encounter plane.')}</p>`;
   const rtn = await plotFigure('rtn', rtnSingleSpec({ eventId: e.id, rtnKm: e.rtnKm }), 'R radial, T in-track, N cross-track, in the primary\'s frame at TCA.');
   const s = m.series;
+  const seriesEvents = s?.events?.length
+    ? table(
+        'series-events',
+        ['Event', 'Source', 'Data created (UTC)', 'Time to TCA h', 'TCA (UTC)', 'Miss km', 'Pc', 'Tier'],
+        s.events.map((x) => [
+          `${x.current ? '<b>' : ''}${esc(x.id)}${x.current ? '</b> (this report)' : ''}`,
+          esc(x.sourceText),
+          esc(shortIso(x.dataAt)),
+          num(x.hoursToTca, 1),
+          esc(shortIso(x.tca)),
+          num(x.missKm, 3),
+          esc(formatPc(x.pc)),
+          tierBadge(x.tier),
+        ]),
+        [3, 5, 6],
+      )
+    : '';
   const series = s
     ? `<section data-section="series"><h2>Series ${esc(s.id)}: ${esc(s.state)}</h2>
+${s.stateMeaning ? `<p class="sub">${esc(s.stateMeaning)}.${s.changeText ? ` Since the first sighting: ${esc(s.changeText)}.` : ''}</p>` : ''}
 ${s.points.length
   ? `${await plotFigure('series-trend', seriesTrendSpec({ seriesId: s.id, points: s.points, pcPlan: m.thresholds.pcPlan, pcMonitor: m.thresholds.pcMonitor }), 'Each point is one event of the series, placed at the time its data was created.')}
 ${await plotFigure('rtn-series', rtnSeriesSpec(s.id, s.points), 'How the predicted geometry settled as TCA came near.')}`
   : '<p class="none">The series has no points yet.</p>'}
+${seriesEvents}
 </section>`
     : '';
   const facts = table(
