@@ -32,6 +32,8 @@ export type ErrorCode =
   | 'OEM_COVARIANCE'
   | 'OEM_UNSUPPORTED'
   | 'INPUT_TOO_LARGE'
+  // shards of an all-vs-all run that do not make one run (keepclear merge)
+  | 'SHARD_INVALID'
   // the database file
   | 'DATABASE_BUSY'
   | 'DATABASE_READONLY'
