@@ -71,7 +71,7 @@ if (rescreen) {
   const c = process.cpuUsage(c0);
   console.log(
     `re-screen of the manoeuvred primary (app/plan/rescreen.ts), ${r.objects} objects (${r.radiusPruned} dismissed by radius bands), ` +
-      `${((scenario.end - start) / 86_400_000).toFixed(1)} days, one thread: wall ${(performance.now() - t0).toFixed(0)} ms, ` +
+      `${((scenario.end - start) / 86_400_000).toFixed(1)} days, worker threads (one per core): wall ${(performance.now() - t0).toFixed(0)} ms, ` +
       `CPU ${((c.user + c.system) / 1000).toFixed(0)} ms, ${r.encounters.length} approaches within 5 km`,
   );
 }
