@@ -15,12 +15,9 @@ export function formatFixed(x: number | null, digits: number): string {
   return x === null || !Number.isFinite(x) ? NONE : x.toFixed(digits);
 }
 
-/** Pc in scientific notation with three significant digits; "0" and "—" (not computed) as such. */
-export function formatPc(pc: number | null): string {
-  if (pc === null || !Number.isFinite(pc)) return NONE;
-  if (pc === 0) return '0';
-  return pc.toExponential(2);
-}
+/** Pc as everywhere else in Keepclear (core/events/pcText.ts): "1.23e-5", "< 1e-10", "—". */
+import { formatPc } from '../core/events/pcText.js';
+export { formatPc };
 
 export interface TierDisplay {
   readonly label: string;
@@ -51,26 +48,3 @@ export function catalogLine(objectCount: number, latestEpoch: string | null): st
   const objects = `${objectCount.toLocaleString('en-US')} object${objectCount === 1 ? '' : 's'} in the catalogue`;
   return latestEpoch === null ? objects : `${objects} · newest elements ${formatUtc(latestEpoch)} UTC`;
 }
-
-/** The event table's cells, in column order (see TABLE_COLUMNS). */
-export function eventCells(e: EventRow): string[] {
-  return [
-    formatUtc(e.tca),
-    e.primary,
-    e.secondary,
-    formatFixed(e.missKm, 3),
-    formatFixed(e.relativeSpeedKmS, 3),
-    formatPc(e.pc),
-    tierDisplay(e.tier).label,
-  ];
-}
-
-export const TABLE_COLUMNS = [
-  'TCA (UTC)',
-  'Primary',
-  'Secondary',
-  'Miss (km)',
-  'Relative speed (km/s)',
-  'Pc',
-  'Tier',
-] as const;

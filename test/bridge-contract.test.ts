@@ -21,7 +21,7 @@ function rejection(channel: unknown, req: unknown): { code: string; message: str
 describe('bridge contract: channels', () => {
   it('lists exactly its channels, in contract order', () => {
     expect(CHANNELS).toEqual([
-      'catalog.summary', 'runs.list', 'runs.events', 'events.get', 'events.view', 'reports.make',
+      'catalog.summary', 'runs.list', 'runs.events', 'events.get', 'events.view', 'events.scene', 'reports.make', 'exports.make',
       'jobs.start', 'jobs.get', 'jobs.cancel', 'jobs.list',
     ]);
     expect(Object.isFrozen(CHANNELS)).toBe(true);
@@ -68,7 +68,7 @@ describe('bridge contract: bad requests are refused with a clear message', () =>
     const e = rejection('runs.delete', { runId: 'R1' });
     expect(e.code).toBe('UNKNOWN_CHANNEL');
     expect(e.message).toBe(
-      'bridge: unknown channel "runs.delete" (known: catalog.summary, runs.list, runs.events, events.get, events.view, reports.make, jobs.start, jobs.get, jobs.cancel, jobs.list)',
+      'bridge: unknown channel "runs.delete" (known: catalog.summary, runs.list, runs.events, events.get, events.view, events.scene, reports.make, exports.make, jobs.start, jobs.get, jobs.cancel, jobs.list)',
     );
     expect(rejection(7, {}).message).toMatch(/^bridge: unknown channel the number 7 \(known: /);
     expect(rejection('toString', {}).code).toBe('UNKNOWN_CHANNEL');

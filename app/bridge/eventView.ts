@@ -10,13 +10,16 @@
  */
 import type { EventView, PlotView } from '../../core/bridge/contract.js';
 import type { PlotSpec } from '../../core/plots/style.js';
-import type { KeepclearDb } from '../../db/index.js';
+import { getEvent, getSpacecraft, type KeepclearDb } from '../../db/index.js';
 
 export async function eventView(db: KeepclearDb, eventId: string): Promise<EventView> {
   // Plotting and report modules load on first use, so `serve` and the desktop app start quickly.
   const { eventReportModelFromDb, renderSpecToSvg } = await import('../report/index.js');
-  const { encounterPlaneSpec, rtnSingleSpec } = await import('../../core/plots/index.js');
+  const { encounterPlaneSpec, rtnSingleSpec, seriesTrendSpec } = await import('../../core/plots/index.js');
+  const { seriesView } = await import('../series.js');
   const m = eventReportModelFromDb(db, eventId);
+  const seriesId = getEvent(db, eventId)?.seriesId ?? null;
+  const sv = seriesId ? seriesView(db, seriesId) : null;
   const notes: string[] = [];
   const wanted: { name: string; caption: string; spec: () => PlotSpec }[] = [];
   if (m.plane) {
@@ -34,6 +37,21 @@ export async function eventView(db: KeepclearDb, eventId: string): Promise<Event
     caption: "R radial, T in-track, N cross-track, in the primary's frame at TCA.",
     spec: () => rtnSingleSpec({ eventId: m.event.id, rtnKm: m.event.rtnKm }),
   });
+  if (sv && sv.trend.points.length > 0) {
+    const points = sv.trend.points.map((p) => ({
+      eventId: p.eventId,
+      source: p.sourceKind === 'cdm' ? ('cdm' as const) : ('run' as const),
+      hoursToTca: p.timeToTcaH,
+      missKm: p.missKm,
+      pc: p.pc,
+      rtnKm: p.rtnKm,
+    }));
+    wanted.push({
+      name: 'series-trend',
+      caption: 'Each point is one sighting of the series, placed at the time its data was created.',
+      spec: () => seriesTrendSpec({ seriesId: sv.stored.id, points, pcPlan: m.thresholds.pcPlan, pcMonitor: m.thresholds.pcMonitor }),
+    });
+  }
   const plots: PlotView[] = [];
   for (const w of wanted) {
     try {
@@ -55,7 +73,13 @@ export async function eventView(db: KeepclearDb, eventId: string): Promise<Event
     })),
     plots,
     notes,
-    series: null,
+    series: sv ? { id: sv.stored.id, state: sv.stored.state, sightings: sv.stored.sightings } : null,
+    spacecraft: spacecraftOf(db, m.event.primary),
     caution: m.caution,
   };
+}
+
+function spacecraftOf(db: KeepclearDb, objectId: string): EventView['spacecraft'] {
+  const sc = getSpacecraft(db, objectId);
+  return { objectId, massKg: sc?.massKg ?? null, ispS: sc?.ispS ?? null };
 }

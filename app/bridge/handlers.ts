@@ -7,6 +7,8 @@ import type { BridgeHandlers } from '../../core/bridge/contract.js';
 import type { KeepclearDb } from '../../db/index.js';
 import { JobManager } from '../jobs/manager.js';
 import { eventView } from './eventView.js';
+import { exportEvent } from './exports.js';
+import { eventScene } from './scene.js';
 import { startImport, startPlan, startScreening } from './jobStarters.js';
 import { catalogSummary, eventResponse, runEvents, runsList } from './queries.js';
 import { makeReport } from './reports.js';
@@ -24,7 +26,9 @@ export function createBridgeHandlers(db: KeepclearDb, jobs: JobManager = new Job
     'runs.events': ({ runId }) => runEvents(db, runId),
     'events.get': ({ eventId }) => eventResponse(db, eventId),
     'events.view': ({ eventId }) => eventView(db, eventId),
+    'events.scene': ({ eventId }) => eventScene(db, eventId),
     'reports.make': (req) => makeReport(db, req),
+    'exports.make': (req) => exportEvent(db, req),
     'jobs.start': (req) => {
       switch (req.kind) {
         case 'import':

@@ -5,7 +5,7 @@
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { ImportFileResult, ImportJobRequest, JobResult, JobStatus, PlanJobRequest, ScreenJobRequest } from '../../core/bridge/contract.js';
+import type { ImportFileResult, ImportJobRequest, JobResult, JobStatus, PlanJobRequest, PlanView, ScreenJobRequest } from '../../core/bridge/contract.js';
 import { canonicalObjectId } from '../../core/elements/objectId.js';
 import { KeepclearError, rejectionLine } from '../../core/errors.js';
 import type { ScreeningSettings } from '../../core/screening/types.js';
@@ -13,6 +13,7 @@ import { MS_PER_DAY, parseIso, type Instant } from '../../core/time/instant.js';
 import type { KeepclearDb } from '../../db/index.js';
 import type { FileOutcome } from '../import/index.js';
 import type { JobContext, JobManager } from '../jobs/manager.js';
+import type { PlanDocument } from '../plan/index.js';
 
 /** Rejections listed per file in the result; the rest are counted (the CLI lists them all). */
 export const PROBLEMS_LISTED_PER_FILE = 20;
@@ -78,8 +79,53 @@ async function screenJob(db: KeepclearDb, settings: ScreeningSettings, ctx: JobC
   return { kind: 'screen', runId: run.id, status: run.status, eventCount: events.length, flagged: run.flagged.map((f) => `${f.id}: ${f.reason}`) };
 }
 
-async function planJob(_db: KeepclearDb, _req: PlanJobRequest, _ctx: JobContext): Promise<JobResult> {
-  throw new KeepclearError('INTERNAL', 'manoeuvre planning is not available in this build yet; use keepclear plan when it is');
+async function planJob(db: KeepclearDb, req: PlanJobRequest, ctx: JobContext): Promise<JobResult> {
+  const { planForEvent } = await import('../plan/index.js');
+  const { getEvent, setSpacecraft } = await import('../../db/index.js');
+  const e = getEvent(db, req.eventId);
+  if (!e) throw new KeepclearError('NOT_FOUND', `no event "${req.eventId}"`);
+  if (req.massKg !== undefined || req.ispS !== undefined) {
+    setSpacecraft(db, e.primary, { ...(req.massKg !== undefined ? { massKg: req.massKg } : {}), ...(req.ispS !== undefined ? { ispS: req.ispS } : {}) });
+  }
+  const target = req.targetMissKm !== undefined ? { kind: 'miss' as const, missKm: req.targetMissKm } : { kind: 'pc' as const, pc: req.targetPc! };
+  const plan = await planForEvent(db, req.eventId, {
+    target,
+    signal: ctx.signal,
+    onProgress: (p) => ctx.progress(p.done, p.total, p.phase === 'trade' ? 'trade over lead times' : 're-screening the manoeuvred path'),
+  });
+  return { kind: 'plan', plan: planViewOf(plan.document) };
+}
+
+const num = (x: unknown): number | null => (typeof x === 'number' && Number.isFinite(x) ? x : null);
+
+/** The plan document (app/plan/json.ts, what `plan --json` writes) as the renderer shows it. */
+export function planViewOf(d: PlanDocument): PlanView {
+  const v = d.verification as { method?: unknown; sgp4PlusDifference?: { missKm?: unknown; pc?: unknown } | null; fullyNumerical?: { missKm?: unknown; pc?: unknown } | null } | null;
+  const checked = v?.sgp4PlusDifference ?? v?.fullyNumerical ?? null;
+  const p = d.proposal;
+  return {
+    event: d.event,
+    target: { missKm: 'missKm' in d.target ? d.target.missKm : null, pc: 'pc' in d.target ? d.target.pc : null },
+    proposal: p && {
+      burnTime: p.burnTime,
+      leadTimeS: p.leadTimeS,
+      direction: p.direction,
+      deltaVMs: p.deltaVMs,
+      deltaVRtnMs: p.deltaVRtnMs,
+      achievedMissKm: p.achievedMissKm ?? Number.NaN,
+      achievedPc: p.achievedPc,
+      propellantKg: p.propellantKg,
+    },
+    trade: d.trade
+      .filter((t) => t.deltaVMs !== null && t.achievedMissKm !== null)
+      .map((t) => ({ leadTimeS: t.leadTimeS, deltaVMs: t.deltaVMs!, achievedMissKm: t.achievedMissKm!, achievedPc: t.achievedPc })),
+    verification:
+      v && checked && num(checked.missKm) !== null
+        ? { method: String(v.method ?? 'numerical propagation'), missKm: num(checked.missKm)!, pc: num(checked.pc), notes: [...d.notes] }
+        : null,
+    newApproaches: d.newApproaches.map((a) => ({ secondary: String(a['secondary']), tca: String(a['tca']), missKm: num(a['missKm']) ?? Number.NaN, pc: num(a['pc']) })),
+    note: p ? null : `no proposal (${d.status})${d.notes.length ? `: ${d.notes.join('; ')}` : ''}`,
+  };
 }
 
 const plural = (n: number, word: string): string => `${n} ${word}${n === 1 ? '' : 's'}`;

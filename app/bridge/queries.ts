@@ -3,6 +3,7 @@ import { eventDetailOf, eventRowOf, runSummaryOf } from '../../core/bridge/conve
 import type { CatalogSummary, EventResponse, RunEvents, RunsList } from '../../core/bridge/contract.js';
 import { KeepclearError } from '../../core/errors.js';
 import { toIso, type Instant } from '../../core/time/instant.js';
+import { seriesStatesOf } from '../seriesJson.js';
 import { countObjects, eventsOfRun, getEvent, getRun, listRuns, newestElementEpochMs, type KeepclearDb } from '../../db/index.js';
 
 /** Runs listed when the renderer does not say how many. */
@@ -19,7 +20,12 @@ export function runsList(db: KeepclearDb, limit: number | undefined): RunsList {
 
 export function runEvents(db: KeepclearDb, runId: string): RunEvents {
   if (!getRun(db, runId)) throw new KeepclearError('NOT_FOUND', `no run "${runId}"`);
-  return { runId, events: eventsOfRun(db, runId).map(eventRowOf) };
+  const events = eventsOfRun(db, runId);
+  const states = seriesStatesOf(db, events);
+  return {
+    runId,
+    events: events.map((e) => ({ ...eventRowOf(e), seriesId: e.seriesId ?? null, seriesState: (e.seriesId && states.get(e.seriesId)) ?? null })),
+  };
 }
 
 export function eventResponse(db: KeepclearDb, eventId: string): EventResponse {

@@ -16,7 +16,8 @@
 import type { TierId } from '../risk/tiers.js';
 import { describe, ID_MAX_LENGTH, objectWith, withId, type Check } from './checks.js';
 import { jobStartCheck, type JobIdRequest, type JobStartRequest, type JobStatus, type JobsList } from './jobContract.js';
-import { reportCheck, type EventView, type ReportDocument, type ReportRequest } from './viewContract.js';
+import { exportCheck, reportCheck, type EventView, type ExportRequest, type ReportDocument, type ReportRequest } from './viewContract.js';
+import type { EncounterScene } from '../scene/encounterScene.js';
 
 export * from './jobContract.js';
 export * from './viewContract.js';
@@ -102,6 +103,9 @@ export interface EventRow {
   readonly covarianceSource: string | null;
   /** decision tier (core/risk/tiers.ts); null before risk assessment */
   readonly tier: TierId | null;
+  /** the series (same conjunction across runs and messages) and its state; null where series are not recorded */
+  readonly seriesId?: string | null;
+  readonly seriesState?: string | null;
 }
 
 export interface RunEvents {
@@ -147,8 +151,12 @@ export interface BridgeContract {
   'events.get': { request: EventGetRequest; response: EventResponse };
   /** the event page: facts with unit and source, plots as SVG, series */
   'events.view': { request: EventGetRequest; response: EventView };
+  /** the 3-D view's scene (core/scene), built in the host */
+  'events.scene': { request: EventGetRequest; response: EncounterScene };
   /** a report as self-contained HTML, for the renderer to save */
   'reports.make': { request: ReportRequest; response: ReportDocument };
+  /** one event as CDM (KVN), CSV or JSON, for the renderer to save */
+  'exports.make': { request: ExportRequest; response: ReportDocument };
   /** long work: import, screening, plan (jobContract.ts) */
   'jobs.start': { request: JobStartRequest; response: JobStatus };
   'jobs.get': { request: JobIdRequest; response: JobStatus };
@@ -207,7 +215,9 @@ const REQUEST_CHECKS: { readonly [C in Channel]: Check } = {
   'runs.events': withId('runId'),
   'events.get': withId('eventId'),
   'events.view': withId('eventId'),
+  'events.scene': withId('eventId'),
   'reports.make': reportCheck,
+  'exports.make': exportCheck,
   'jobs.start': jobStartCheck,
   'jobs.get': withId('jobId'),
   'jobs.cancel': withId('jobId'),
@@ -233,7 +243,9 @@ export const REQUEST_GUARDS: { readonly [C in Channel]: (req: unknown) => req is
   'runs.events': (req): req is RunEventsRequest => isRequest('runs.events', req),
   'events.get': (req): req is EventGetRequest => isRequest('events.get', req),
   'events.view': (req): req is EventGetRequest => isRequest('events.view', req),
+  'events.scene': (req): req is EventGetRequest => isRequest('events.scene', req),
   'reports.make': (req): req is ReportRequest => isRequest('reports.make', req),
+  'exports.make': (req): req is ExportRequest => isRequest('exports.make', req),
   'jobs.start': (req): req is JobStartRequest => isRequest('jobs.start', req),
   'jobs.get': (req): req is JobIdRequest => isRequest('jobs.get', req),
   'jobs.cancel': (req): req is JobIdRequest => isRequest('jobs.cancel', req),

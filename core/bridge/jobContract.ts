@@ -40,6 +40,9 @@ export interface PlanJobRequest {
   readonly eventId: string;
   readonly targetMissKm?: number;
   readonly targetPc?: number;
+  /** the primary's mass and Isp, stored with the object before planning (absent: what is stored) */
+  readonly massKg?: number;
+  readonly ispS?: number;
 }
 
 export type JobStartRequest = ImportJobRequest | ScreenJobRequest | PlanJobRequest;
@@ -129,6 +132,9 @@ export const SCREEN_MAX_THRESHOLD_KM = 1000;
 /** Plan targets: a miss up to 100 km, a Pc from 1e-12 up to 1e-2 (anything above is no avoidance target). */
 export const PLAN_MAX_MISS_KM = 100;
 export const PLAN_PC_RANGE = [1e-12, 1e-2] as const;
+/** Spacecraft from a 0.1 kg chip-sat to a 100 t station; Isp from cold gas (~30 s) to electric (~10,000 s). */
+export const PLAN_MASS_RANGE_KG = [0.1, 100_000] as const;
+export const PLAN_ISP_RANGE_S = [1, 10_000] as const;
 
 const FILE_NAME_BAD = /[\u0000-\u001f\u007f/\\]/;
 
@@ -179,8 +185,16 @@ function screenCheck(r: Record<string, unknown>): string | null {
 }
 
 function planCheck(r: Record<string, unknown>): string | null {
-  const shape = objectWith(r, ['kind', 'eventId', 'targetMissKm', 'targetPc']);
+  const shape = objectWith(r, ['kind', 'eventId', 'targetMissKm', 'targetPc', 'massKg', 'ispS']);
   if (shape) return shape;
+  if (r['massKg'] !== undefined) {
+    const bad = numberIn(r['massKg'], 'massKg', PLAN_MASS_RANGE_KG[0], PLAN_MASS_RANGE_KG[1], `a mass in kg from ${PLAN_MASS_RANGE_KG[0]} to ${PLAN_MASS_RANGE_KG[1]}`);
+    if (bad) return bad;
+  }
+  if (r['ispS'] !== undefined) {
+    const bad = numberIn(r['ispS'], 'ispS', PLAN_ISP_RANGE_S[0], PLAN_ISP_RANGE_S[1], `an Isp in s from ${PLAN_ISP_RANGE_S[0]} to ${PLAN_ISP_RANGE_S[1]}`);
+    if (bad) return bad;
+  }
   const id = idValue(r['eventId'], 'eventId');
   if (id) return id;
   const miss = r['targetMissKm'];

@@ -39,6 +39,8 @@ export interface EventView {
   readonly notes: readonly string[];
   /** the event's series, when series are recorded */
   readonly series: { readonly id: string; readonly state: string; readonly sightings: number } | null;
+  /** the primary's mass and Isp as stored (a manoeuvre plan needs both); null where not set */
+  readonly spacecraft: { readonly objectId: string; readonly massKg: number | null; readonly ispS: number | null };
   /** the decision-aid note */
   readonly caution: string;
 }
@@ -63,4 +65,20 @@ export const reportCheck: Check = (req) => {
   const r = req as Record<string, unknown>;
   if (r['target'] !== 'event' && r['target'] !== 'run') return `"target" must be "event" or "run", got ${describe(r['target'])}`;
   return idField(r, 'id');
+};
+
+export type ExportFormat = 'cdm' | 'csv' | 'json';
+export const EXPORT_FORMATS: readonly ExportFormat[] = ['cdm', 'csv', 'json'];
+
+export interface ExportRequest {
+  readonly eventId: string;
+  readonly format: ExportFormat;
+}
+
+export const exportCheck: Check = (req) => {
+  const shape = objectWith(req, ['eventId', 'format']);
+  if (shape) return shape;
+  const r = req as Record<string, unknown>;
+  if (!(EXPORT_FORMATS as readonly unknown[]).includes(r['format'])) return `"format" must be one of ${EXPORT_FORMATS.join(', ')}, got ${describe(r['format'])}`;
+  return idField(r, 'eventId');
 };
