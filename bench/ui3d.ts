@@ -6,7 +6,8 @@
  * while the drag lasts every animation frame is a drawn frame; the intervals between them are the
  * frame times a user sees. Measured with and without the half resolution used while dragging.
  *
- *   npm run bench -- ui3d          (also part of npm run bench:ui once the list benchmark calls it)
+ *   npm run bench:ui               (after the list's scrolling benchmark, bench/ui.ts)
+ *   npm run bench -- ui3d
  *   node --import tsx bench/ui3d.ts
  *   UI3D_SECONDS=5 UI3D_CATALOG=30000 npm run bench -- ui3d
  */
