@@ -10,6 +10,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { reportFixture } from '../test/support/reportFixture.js';
 import { buildRenderer, openServedApp } from '../test/support/servedApp.js';
+import { benchUi3d } from './ui3d.js';
 
 const EVENTS = Number(process.env.BENCH_EVENTS ?? 10_000);
 /** px per frame: ~8 rows, a brisk flick; and whole pages for Page Down-like jumps */
@@ -90,3 +91,5 @@ async function main(): Promise<void> {
 }
 
 await main();
+// The 3-D view while orbiting with 30,000 catalogue points (bench/ui3d.ts).
+await benchUi3d();
