@@ -2,7 +2,8 @@ import { eventRowOf } from '../core/bridge/convert.js';
 import { toIso } from '../core/time/instant.js';
 import type { FlaggedObject, ScreeningSettings } from '../core/screening/types.js';
 import type { ConjunctionEvent } from '../core/events/index.js';
-import type { RunRecord } from '../db/index.js';
+import type { RunEphemeris, RunRecord } from '../db/index.js';
+import { describeEphemeris } from './ephemerisText.js';
 
 /**
  * JSON of one event: the contract names of DESIGN.md ("JSON of screen and events") plus extras.
@@ -30,7 +31,16 @@ export function eventToJson(e: ConjunctionEvent, seriesStates?: ReadonlyMap<stri
   };
 }
 
-export function runToJson(run: RunRecord, flagged: readonly FlaggedObject[] = run.flagged): Record<string, unknown> {
+/**
+ * JSON of a run. `ephemerides`: the owner ephemerides it screened primaries from (db
+ * runEphemerides); each primary then has `primarySources[id] = "ephemeris: FILE (OEM, created …)"`,
+ * the others "element set".
+ */
+export function runToJson(
+  run: RunRecord,
+  flagged: readonly FlaggedObject[] = run.flagged,
+  ephemerides: readonly RunEphemeris[] = [],
+): Record<string, unknown> {
   const s: ScreeningSettings = run.settings;
   const v = s.volume;
   return {
@@ -48,5 +58,16 @@ export function runToJson(run: RunRecord, flagged: readonly FlaggedObject[] = ru
     status: run.status,
     catalogFingerprint: run.catalogFingerprint,
     wallMs: run.wallMs,
+    ...(s.primaries === 'all'
+      ? {}
+      : {
+          primarySources: Object.fromEntries(
+            s.primaries.map((id) => {
+              const e = ephemerides.find((x) => x.objectId === id);
+              return [id, e ? `ephemeris: ${describeEphemeris(e)}` : 'element set'];
+            }),
+          ),
+          ephemerides: ephemerides.map((e) => ({ primary: e.objectId, file: e.fileName, creationDate: toIso(e.creationDate) })),
+        }),
   };
 }

@@ -1,8 +1,11 @@
+import { basename } from 'node:path';
 import type { ElementSet } from '../core/elements/elementSet.js';
+import type { EphemerisTrajectory } from '../core/propagation/ephemeris.js';
 import type { Matrix } from '../core/math/linalg.js';
 import { assessEncounter, type CovarianceInput } from '../core/risk/assess.js';
 import type { TierThresholds } from '../core/risk/tiers.js';
 import type { Encounter, RiskAssessment } from '../core/events/index.js';
+import type { Instant } from '../core/time/instant.js';
 import { elementSetHistory, getObject, getSetting, type KeepclearDb } from '../db/index.js';
 
 /** Settings key of user-set tier thresholds (JSON: { mitigatePc, attentionPc, ... }). */
@@ -18,7 +21,17 @@ export class RiskContext {
   private readonly history = new Map<string, ElementSet[]>();
   private readonly thresholds: Partial<TierThresholds> | undefined;
 
-  constructor(private readonly db: KeepclearDb) {
+  /**
+   * `ephemerides`: the owner ephemerides a run screened from, by object id; an ephemeris's
+   * covariance block (the latest at or before TCA) is then that object's covariance, after a
+   * received CDM and before the element-set history. `encounterModel`: see
+   * AssessInputs.encounterModel ('auto' by default: 3-D Pc where the short-encounter assumption fails).
+   */
+  constructor(
+    private readonly db: KeepclearDb,
+    private readonly ephemerides: ReadonlyMap<string, EphemerisTrajectory> = new Map(),
+    private readonly options: { readonly encounterModel?: 'auto' | '2d' } = {},
+  ) {
     this.thresholds = (getSetting(db, TIER_SETTINGS_KEY) as Partial<TierThresholds> | undefined) ?? undefined;
   }
 
@@ -31,10 +44,12 @@ export class RiskContext {
     return h;
   }
 
-  private input(id: string, epoch: number, cdmRtnM2: Matrix | null | undefined, doubtful?: string | null): CovarianceInput {
+  private input(id: string, epoch: number, tca: Instant, cdmRtnM2: Matrix | null | undefined, doubtful?: string | null): CovarianceInput {
     // History up to the set used in the screening (later sets did not exist for it).
     const h = this.historyOf(id).filter((s) => s.epoch <= epoch + 1);
-    return { cdmRtnM2: cdmRtnM2 ?? null, cdmDoubtfulNote: doubtful ?? null, history: h, elements: h[h.length - 1] ?? null };
+    const cov = this.ephemerides.get(id)?.covarianceRtnAt(tca) ?? null;
+    const ephemeris = cov ? { rtnM2: cov.rtnM2, source: `oem(${basename(cov.file)})`, note: cov.note } : null;
+    return { cdmRtnM2: cdmRtnM2 ?? null, cdmDoubtfulNote: doubtful ?? null, ephemeris, history: h, elements: h[h.length - 1] ?? null };
   }
 
   assess(
@@ -50,11 +65,12 @@ export class RiskContext {
     },
   ): RiskAssessment {
     return assessEncounter(e, {
-      primary: this.input(e.primary, e.primaryEpoch, cdm?.primaryRtnM2, cdm?.primaryDoubtful),
-      secondary: this.input(e.secondary, e.secondaryEpoch, cdm?.secondaryRtnM2, cdm?.secondaryDoubtful),
+      primary: this.input(e.primary, e.primaryEpoch, e.tca, cdm?.primaryRtnM2, cdm?.primaryDoubtful),
+      secondary: this.input(e.secondary, e.secondaryEpoch, e.tca, cdm?.secondaryRtnM2, cdm?.secondaryDoubtful),
       hbrPrimaryM: cdm?.hbrPrimaryM ?? getObject(this.db, e.primary)?.hardBodyRadiusM ?? null,
       hbrSecondaryM: cdm?.hbrSecondaryM ?? getObject(this.db, e.secondary)?.hardBodyRadiusM ?? null,
       ...(this.thresholds ? { thresholds: this.thresholds } : {}),
+      ...(this.options.encounterModel ? { encounterModel: this.options.encounterModel } : {}),
     });
   }
 }

@@ -4,7 +4,7 @@ import { runScreening } from '../core/screening/run.js';
 import type { ScreeningSettings } from '../core/screening/types.js';
 import type { ConjunctionEvent } from '../core/events/index.js';
 import {
-  catalogFingerprint,
+  fingerprintOfSets,
   createRun,
   finishRun,
   eventsOfRun,
@@ -12,9 +12,13 @@ import {
   inTransaction,
   latestElementSets,
   setRunDataAt,
+  recordRunEphemeris,
+  runEphemerides,
   type KeepclearDb,
+  type RunEphemeris,
   type RunRecord,
 } from '../db/index.js';
+import { chooseEphemerides } from './ephemerisChoice.js';
 import { RiskContext } from './risk.js';
 import { linkRun, type LinkOutcome } from './series.js';
 
@@ -35,11 +39,18 @@ export interface ScreenResult {
   /** as stored: with risk and series id */
   readonly events: ConjunctionEvent[];
   readonly linked: LinkOutcome;
+  /** the owner ephemerides (OEM) the run screened primaries from, in place of their element sets */
+  readonly ephemerides: readonly RunEphemeris[];
+  /** why a primary with ephemerides was screened from its element set (none covers the window) */
+  readonly notes: readonly string[];
 }
 
 /**
  * One screening run end to end: the newest element set of every stored object, the screening
  * (worker threads), the risk of each encounter, and the run stored in one transaction.
+ * A primary with an owner ephemeris (OEM) that covers the window is screened from the newest
+ * such ephemeris instead of its element set, and the run records which (app/ephemerisChoice.ts);
+ * an ephemeris that covers only part of the window is an error, never extrapolated.
  * A cancelled run is stored as cancelled with what was found so far.
  */
 export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promise<ScreenResult> {
@@ -48,19 +59,30 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
     throw new KeepclearError('NOT_FOUND', 'the database holds no element sets; import a catalogue first (keepclear import FILE)');
   }
   const known = new Set(sets.map((s) => s.objectId));
+  const choice =
+    req.settings.primaries === 'all'
+      ? { used: new Map(), notes: [] }
+      : chooseEphemerides(db, req.settings.primaries, req.settings.start, req.settings.end);
   if (req.settings.primaries !== 'all') {
-    const missing = req.settings.primaries.filter((p) => !known.has(p));
+    const missing = req.settings.primaries.filter((p) => !known.has(p) && !choice.used.has(p));
     if (missing.length > 0) {
-      throw new KeepclearError('NOT_FOUND', `no element set for primary ${missing.join(', ')}; import it first or check the id`);
+      throw new KeepclearError('NOT_FOUND', `no element set or covering ephemeris for primary ${missing.join(', ')}; import one first or check the id`);
     }
   }
-  const runId = createRun(db, req.settings, catalogFingerprint(db), sets.length);
+  // The fingerprint of the sets already loaded: reading the catalogue twice cost as much as the load.
+  const runId = createRun(db, req.settings, fingerprintOfSets(sets), sets.length);
   let outcome;
   try {
     outcome = await runScreening(sets, req.settings, {
       ...(req.workers !== undefined ? { workers: req.workers } : {}),
       ...(req.onProgress ? { onProgress: req.onProgress } : {}),
       ...(req.signal ? { signal: req.signal } : {}),
+      ...(choice.used.size > 0
+        ? {
+            // The data behind an ephemeris is as old as its CREATION_DATE: that is the primary's epoch.
+            primaryTrajectories: [...choice.used.values()].map((u) => ({ trajectory: u.trajectory, epoch: u.summary.creationDate })),
+          }
+        : {}),
     });
   } catch (err) {
     finishRun(db, runId, { status: 'failed', wallMs: 0, flagged: [], events: [] });
@@ -69,10 +91,12 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
   // Covariance precedence: the object's element-set history, then the default table; a received
   // message of the same series comes first and is applied while linking (app/series.ts), since
   // which message is "the same conjunction" is the series rule's answer.
-  const risk = new RiskContext(db);
+  // An ephemeris's covariance block, when it has one, is that primary's covariance (app/risk.ts).
+  const risk = new RiskContext(db, new Map([...choice.used].map(([id, u]) => [id, u.trajectory])));
   const events = outcome.encounters.map((e) => ({ ...e, risk: risk.assess(e) }));
   const linked = inTransaction(db, () => {
     if (req.dataAt !== undefined) setRunDataAt(db, runId, req.dataAt);
+    for (const u of choice.used.values()) recordRunEphemeris(db, runId, u.summary);
     finishRun(db, runId, {
       status: outcome.cancelled ? 'cancelled' : 'done',
       wallMs: outcome.wallMs,
@@ -82,7 +106,13 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
     // In the same transaction: nobody sees the run's events without their series.
     return linkRun(db, runId);
   });
-  return { run: getRun(db, runId)!, events: eventsOfRun(db, runId), linked };
+  return {
+    run: getRun(db, runId)!,
+    events: eventsOfRun(db, runId),
+    linked,
+    ephemerides: runEphemerides(db, runId),
+    notes: choice.notes,
+  };
 }
 
 export const daysAfter = (start: Instant, days: number): Instant => (start + days * 86_400_000) as Instant;

@@ -30,6 +30,7 @@ import {
   type SeriesTrend,
 } from '../core/events/index.js';
 import { sightingView, tcaTolerance } from '../core/events/seriesTolerance.js';
+import { KeepclearError } from '../core/errors.js';
 import type { Instant } from '../core/time/instant.js';
 import {
   deleteSeries,
@@ -194,6 +195,18 @@ export function ensureLinked(db: KeepclearDb): LinkOutcome | null {
   return pending.length === 0 ? null : linkPairs(db, pending);
 }
 
+/**
+ * ensureLinked for readers: a database that cannot be written (read-only file, a lock held too
+ * long) is still read, without the missing series ids.
+ */
+export function tryEnsureLinked(db: KeepclearDb): void {
+  try {
+    ensureLinked(db);
+  } catch (err) {
+    if (!(err instanceof KeepclearError && err.code.startsWith('DATABASE_'))) throw err;
+  }
+}
+
 /** One series as the CLI and reports show it: its stored state, its events in data order, its trend. */
 export interface SeriesView {
   readonly stored: StoredSeries;
@@ -239,7 +252,6 @@ export interface RunChanges {
 export function changesOfRun(db: KeepclearDb, runId: string): RunChanges | null {
   const run = getRun(db, runId);
   if (!run) return null;
-  ensureLinked(db);
   const changes: SeriesChange[] = [];
   const mine = sightingsOfRun(db, runId);
   const seriesIds = new Set<string>();

@@ -4,6 +4,7 @@
  */
 import { KeepclearError } from '../core/errors.js';
 import type { OptionSpec, ValueParser } from './command.js';
+import type { ShardSpec } from '../core/screening/spatial/shard.js';
 
 const bad = (message: string): KeepclearError => new KeepclearError('BAD_ARGUMENT', message);
 
@@ -40,3 +41,16 @@ export const allEventsOption: OptionSpec = {
   flags: '--all-events',
   description: 'list every event in the terminal, not only those above the lowest tier',
 };
+
+/** Largest N of --shard K/N: far beyond any batch engine's array size of practical use. */
+export const MAX_SHARDS = 10_000;
+
+/** --shard K/N (1 ≤ K ≤ N ≤ MAX_SHARDS): which part of an all-vs-all run's pairs to screen. */
+export function parseShard(text: string): ShardSpec {
+  const m = /^\s*(\d+)\s*\/\s*(\d+)\s*$/.exec(text);
+  const k = m ? Number(m[1]) : NaN, n = m ? Number(m[2]) : NaN;
+  if (!m || !(n >= 1 && n <= MAX_SHARDS) || !(k >= 1 && k <= n)) {
+    throw bad(`--shard must be K/N with 1 ≤ K ≤ N ≤ ${MAX_SHARDS} (e.g. 2/7), got "${text}"`);
+  }
+  return { index: k, count: n };
+}

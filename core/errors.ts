@@ -32,6 +32,8 @@ export type ErrorCode =
   | 'OEM_COVARIANCE'
   | 'OEM_UNSUPPORTED'
   | 'INPUT_TOO_LARGE'
+  // shards of an all-vs-all run that do not make one run (keepclear merge)
+  | 'SHARD_INVALID'
   // the database file
   | 'DATABASE_BUSY'
   | 'DATABASE_READONLY'
@@ -43,6 +45,8 @@ export type ErrorCode =
   | 'OPM_STRUCTURE'
   // propagation
   | 'PROPAGATION_FAILED'
+  /** an owner ephemeris does not cover the screening window (never extrapolated) */
+  | 'EPHEMERIS_GAP'
   // manoeuvre planning
   | 'SPACECRAFT_PARAMETER_MISSING'
   // arguments and runs

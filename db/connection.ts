@@ -60,6 +60,11 @@ export function busyTimeoutFromEnv(env: NodeJS.ProcessEnv = process.env): number
 export interface OpenOptions {
   /** default: KEEPCLEAR_BUSY_TIMEOUT_MS, else DEFAULT_BUSY_TIMEOUT_MS */
   readonly busyTimeoutMs?: number;
+  /**
+   * Path of a better_sqlite3.node built for another runtime's ABI (the desktop app passes the
+   * Electron build, electron/nativeBinding.ts); default: the one in node_modules, built for Node.
+   */
+  readonly nativeBinding?: string;
 }
 
 /**
@@ -72,7 +77,7 @@ export function openDatabase(path: string, options: OpenOptions = {}): Keepclear
   const busyTimeoutMs = options.busyTimeoutMs ?? busyTimeoutFromEnv();
   let sqlite: Database.Database;
   try {
-    sqlite = new Database(path);
+    sqlite = options.nativeBinding ? new Database(path, { nativeBinding: options.nativeBinding }) : new Database(path);
     // A second process (CLI while the desktop app is open) waits instead of failing at once.
     // Set first: switching to WAL below may itself have to wait for another process.
     sqlite.pragma(`busy_timeout = ${Math.trunc(busyTimeoutMs)}`);

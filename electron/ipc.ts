@@ -29,11 +29,15 @@ export function registerBridgeIpc(
   isTrustedSender: SenderCheck,
 ): () => void {
   for (const channel of CHANNELS) {
-    ipc.handle(ipcChannelName(channel), async (event: InvokeEventLike, req: unknown): Promise<BridgeReply> => {
+    ipc.handle(ipcChannelName(channel), async (event: InvokeEventLike, ...args: unknown[]): Promise<BridgeReply> => {
       if (!isTrustedSender(event)) {
         return { ok: false, error: { code: 'BAD_REQUEST', message: `bridge: ${channel}: call from an untrusted frame refused` } };
       }
-      return dispatch(handlers, channel, req);
+      // The preload sends exactly one request object; anything else did not come through it.
+      if (args.length !== 1) {
+        return { ok: false, error: { code: 'BAD_REQUEST', message: `bridge: ${channel}: expected one request, got ${args.length} arguments` } };
+      }
+      return dispatch(handlers, channel, args[0]);
     });
   }
   return () => {

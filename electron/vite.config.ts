@@ -2,10 +2,15 @@
  * Builds the Electron side into dist/electron (two passes, because the sandboxed preload must be
  * one CommonJS file while the main process is an ES module):
  *
- *   npx vite build -c electron/vite.config.ts --mode main      → dist/electron/main.js
+ *   npx vite build -c electron/vite.config.ts --mode main      → dist/electron/main.js (from entry.ts)
  *   npx vite build -c electron/vite.config.ts --mode preload   → dist/electron/preload.cjs
  *
- * core/ is bundled in; npm dependencies (better-sqlite3, …) and Node built-ins stay external.
+ * The main process is not bundled with core/, db/ and app/: its imports of them stay as written
+ * ('../app/bridge/handlers.js' from dist/electron/main.js), so they load the compiled program
+ * that `npm run build:cli` (scripts/build.mjs, also run at install) puts in dist/core, dist/db and
+ * dist/app — the same files the CLI runs, whose screening workers start from compiled .js files
+ * beside them. npm dependencies and Node built-ins stay external too. The sandboxed preload is
+ * bundled whole (it cannot load other files).
  */
 import { builtinModules } from 'node:module';
 import { fileURLToPath } from 'node:url';
@@ -16,12 +21,15 @@ const outDir = at('../dist/electron');
 
 const mainConfig: UserConfig = {
   build: {
-    ssr: at('./main.ts'),
+    ssr: at('./entry.ts'),
     outDir,
     emptyOutDir: false,
     target: 'node22',
     sourcemap: true,
-    rolldownOptions: { output: { format: 'es', entryFileNames: 'main.js' } },
+    rolldownOptions: {
+      external: (id: string) => /^(\.\.\/)+(core|db|app)\//.test(id),
+      output: { format: 'es', entryFileNames: 'main.js' },
+    },
   },
 };
 

@@ -23,6 +23,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { replayDemoWeeks, type ReplayedWeek } from '../app/demo.js';
 import { importFile } from '../app/import/index.js';
 import { changesOfRun, linkRun, seriesView } from '../app/series.js';
+import { eventReportModelFromDb, renderEventReportHtml, renderRunReportHtml, runReportModelFromDb } from '../app/report/index.js';
+import { all, axesOf, parseDoc } from './support/svgProbe.js';
 import { orbitOfState } from '../core/events/index.js';
 import { buildDemoWeeks, type DemoApproach, type DemoWeeks } from '../core/synthetic/demoWeeks.js';
 import { toIso, type Instant } from '../core/time/instant.js';
@@ -120,6 +122,43 @@ function partition(d: KeepclearDb): string[] {
     .map((s) => `${s.state}: ${eventsOfSeries(d, s.id).map((m) => keyOf(m.source.createdAt, m.event.primary, m.event.secondary, m.event.tca)).join(' | ')}`)
     .sort();
 }
+
+describe('reports', () => {
+  it("week 3's run report says what changed, by series (DOM, not regex)", async () => {
+    const html = await renderRunReportHtml(runReportModelFromDb(db, weeks[2]!.run.id));
+    const doc = parseDoc(html).document;
+    const section = doc.querySelector('section[data-section="changes"]')!;
+    expect(section).toBeTruthy();
+    const rows = all(section, 'tr[data-change]');
+    const byKind = (k: string) => rows.filter((r) => r.getAttribute('data-change') === k).map((r) => r.getAttribute('data-series'));
+    const changes = changesOfRun(db, weeks[2]!.run.id)!.changes;
+    expect(rows).toHaveLength(changes.length);
+    const away = seriesOfApproach(db, demo.approaches.find((x) => x.role === 'goes-away')!)[0]!;
+    const riskier = seriesOfApproach(db, demo.approaches.find((x) => x.role === 'grows-riskier')!)[0]!;
+    const appears = seriesOfApproach(db, demo.approaches.find((x) => x.role === 'appears')!)[0]!;
+    expect(byKind('no-longer-predicted')).toEqual([away.id]);
+    expect(byKind('updated')).toContain(riskier.id);
+    expect(byKind('new')).toContain(appears.id);
+    // every event of week 3 is either new or updated
+    expect(byKind('new').length + byKind('updated').length).toBe(eventsOfRun(db, weeks[2]!.run.id).length);
+  });
+
+  it("an event report carries its series' trend plot with axes and the series' events in data order", async () => {
+    const riskier = seriesOfApproach(db, demo.approaches.find((x) => x.role === 'grows-riskier')!)[0]!;
+    const html = await renderEventReportHtml(eventReportModelFromDb(db, riskier.lastEventId));
+    const doc = parseDoc(html).document;
+    const section = doc.querySelector('section[data-section="series"]')!;
+    expect(section.querySelector('h2')!.textContent).toContain(`Series ${riskier.id}: updated`);
+    const fig = section.querySelector('figure[data-plot="series-trend"]')!;
+    expect(fig).toBeTruthy();
+    const titles = axesOf(fig.querySelector('svg')!).map((a) => a.title);
+    expect(titles.some((t) => /time to TCA/.test(t))).toBe(true);
+    const rows = all(section, 'table[data-table="series-events"] tbody tr');
+    const members = eventsOfSeries(db, riskier.id);
+    expect(rows.map((r) => r.querySelector('td')!.textContent!.split(' ')[0])).toEqual(members.map((m) => m.event.id));
+    expect(rows[2]!.textContent).toContain('(this report)');
+  });
+});
 
 describe('arrival order and the next orbit', () => {
   it('the same runs and message stored newest first, the message last, give the same series and states', () => {

@@ -49,8 +49,8 @@ describe('keepclear export', () => {
   });
 
   it.each([
-    [['--format', 'csv', '--out', 'x.csv'], /exactly one of --event ID or --run ID/],
-    [['--run', 'R1', '--event', 'R1-1', '--format', 'csv', '--out', 'x.csv'], /exactly one of --event ID or --run ID/],
+    [['--format', 'csv', '--out', 'x.csv'], /exactly one of --event ID, --run ID or --series ID/],
+    [['--run', 'R1', '--event', 'R1-1', '--format', 'csv', '--out', 'x.csv'], /exactly one of --event ID, --run ID or --series ID/],
     [['--run', 'R1', '--out', 'x.csv'], /give --format cdm, csv or json/],
     [['--run', 'R1', '--format', 'xls', '--out', 'x.xls'], /--format must be cdm, csv or json, got "xls"/],
     [['--run', 'R1', '--format', 'csv'], /give --out FILE/],

@@ -14,11 +14,12 @@ import { ROOT, runKeepclear, type Run } from './support/cli.js';
 
 const EXPECTED: Record<string, string[]> = {
   import: ['--db', '--hbr-m'],
-  screen: ['--catalog', '--primary', '--all', '--start', '--days', '--threshold-km', '--volume-rtn-km', '--db', '--json', '--workers', '--all-events',
+  screen: ['--catalog', '--primary', '--all', '--shard', '--start', '--days', '--threshold-km', '--volume-rtn-km', '--db', '--json', '--workers', '--all-events',
     '--attention-tier', '--attention-exit', '--attention-file'],
+  merge: ['--db', '--json', '--all-events'],
   events: ['--db', '--run', '--series', '--json', '--all-events'],
   report: ['--run', '--event', '--out', '--db'],
-  export: ['--event', '--run', '--format', '--out', '--db'],
+  export: ['--event', '--run', '--series', '--format', '--out', '--db'],
   demo: ['--out', '--size', '--workers', '--all-events'],
   plan: ['--event', '--target-miss-km', '--target-pc', '--db', '--json', '--oem', '--opm'],
   spacecraft: ['--id', '--mass-kg', '--isp-s', '--db', '--json'],

@@ -37,6 +37,16 @@ describe('keepclear report', () => {
     expect(r.stderr).toMatch(/^report: .*week\.html \(HTML/m);
   });
 
+  it('--run latest reports on the newest finished screening run (README "Scheduled use")', () => {
+    const out = join(dir, 'latest.html');
+    const r = keepclear(['report', '--run', 'latest', '--out', out, '--db', dbPath]);
+    expect(r.code, r.stderr).toBe(0);
+    expect(readFileSync(out, 'utf8')).toContain(`<b>${runId}</b>`);
+    const empty = keepclear(['report', '--run', 'latest', '--out', join(dir, 'none.html'), '--db', join(dir, 'empty.db')]);
+    expect(empty.code).toBe(1);
+    expect(empty.stderr).toMatch(/^keepclear: no finished screening run/m);
+  });
+
   it('writes an event report as HTML', () => {
     const out = join(dir, 'event.html');
     const r = keepclear(['report', '--event', `${runId}-1`, '--out', out, '--db', dbPath]);

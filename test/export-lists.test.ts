@@ -12,6 +12,7 @@ import type { ConjunctionEvent } from '../core/events/index.js';
 import { DECISION_AID_NOTE } from '../core/risk/assess.js';
 import type { KeepclearDb } from '../db/index.js';
 import { reportFixture } from './support/reportFixture.js';
+import { exportFixture, screenAgain } from './support/exportFixture.js';
 
 /** RFC 4180 §2: records end in CRLF; a field in quotes may hold commas, CRLF and "" for a quote. */
 function readCsv(text: string): string[][] {
@@ -106,5 +107,34 @@ describe('JSON export', () => {
     const doc = JSON.parse(readFileSync(out, 'utf8')) as { caution: string; events: { id: string; tca: string }[] };
     expect(doc.caution).toBe(DECISION_AID_NOTE);
     expect(doc.events.map((e) => e.id)).toEqual([`${runId}-2`]);
+  });
+});
+
+describe('series export', () => {
+  it('lists the series\' events in data order, in CSV, JSON (with the series and the caution) and as CDMs', async () => {
+    const fx = await exportFixture();
+    try {
+      const again = await screenAgain(fx.db);
+      const seriesId = again.events[0]!.seriesId!;
+      expect(seriesId).toBeTruthy();
+      expect(fx.events[0]!.id).not.toBe(again.events[0]!.id);
+      const csvPath = join(dir, 'series.csv');
+      const r = exportEvents(fx.db, { series: seriesId }, 'csv', csvPath);
+      expect(r).toMatchObject({ kind: 'series', id: seriesId, events: 2 });
+      const rows = readCsv(readFileSync(csvPath, 'utf8'));
+      expect(rows.slice(1).map((x) => x[CSV_COLUMNS.indexOf('id')])).toEqual([fx.events[0]!.id, again.events[0]!.id]);
+      expect(rows.slice(1).map((x) => x[CSV_COLUMNS.indexOf('seriesId')])).toEqual([seriesId, seriesId]);
+      const jsonPath = join(dir, 'series.json');
+      exportEvents(fx.db, { series: seriesId }, 'json', jsonPath);
+      const doc = JSON.parse(readFileSync(jsonPath, 'utf8')) as { caution: string; series: { id: string; state: string }; events: { id: string }[] };
+      expect(doc.caution).toBe(DECISION_AID_NOTE);
+      expect(doc.series).toMatchObject({ id: seriesId, state: 'updated' });
+      expect(doc.events.map((e) => e.id)).toEqual([fx.events[0]!.id, again.events[0]!.id]);
+      const cdms = exportEvents(fx.db, { series: seriesId }, 'cdm', join(dir, 'series-cdm'));
+      expect(cdms.files.map((f) => f.split('/').pop())).toEqual([`${fx.events[0]!.id}.cdm`, `${again.events[0]!.id}.cdm`]);
+      expect(() => exportEvents(fx.db, { series: 'S-nope' }, 'csv', join(dir, 'x.csv'))).toThrow(/no series "S-nope"/);
+    } finally {
+      fx.db.close();
+    }
   });
 });

@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import { multiply, transpose } from '../core/math/linalg.js';
 import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
-import { cdmRtnFromLowerTriangle, covarianceFromCdm } from '../core/risk/covarianceCdm.js';
+import { cdmRtnFromLowerTriangle } from '../core/risk/covarianceCdm.js';
+import { rtnToInertialCov6 } from '../core/risk/frames.js';
 import { defaultCovariance, regimeOf } from '../core/risk/covarianceDefault.js';
 import { covarianceFromHistory, GROWTH_FLOOR_DAYS } from '../core/risk/covarianceHistory.js';
 import { judgeCovariance } from '../core/risk/covariancePsd.js';
@@ -57,17 +58,27 @@ describe('CDM covariance (CCSDS 508.0-B-1 lower triangle, RTN) → inertial', ()
     expect(m[2]![2]).toBe(6);
     expect(m[5]![5]).toBe(21);
   });
-  it('inclined circular orbit at the node: T and N mix by the inclination (hand-computed)', () => {
+  it('inclined circular orbit at the node: T and N mix by the inclination; ω×r gives the velocity block (hand-computed)', () => {
     const i = 0.9, sr = 100, st = 1000, sn = 300;
     const rtn6 = cdmRtnFromLowerTriangle([sr ** 2, 0, st ** 2, 0, 0, sn ** 2, ...new Array<number>(15).fill(0)]);
-    const cov = covarianceFromCdm(rtn6, [7000, 0, 0, 0, 7.5 * Math.cos(i), 7.5 * Math.sin(i)]).inertialM2;
+    const r = 7000, v = 7.5; // km, km/s
+    const cov = rtnToInertialCov6(rtn6, [r, 0, 0], [0, v * Math.cos(i), v * Math.sin(i)]);
     const ci = Math.cos(i), si = Math.sin(i);
     const expected = [
       [sr ** 2, 0, 0],
       [0, st ** 2 * ci * ci + sn ** 2 * si * si, (st ** 2 - sn ** 2) * ci * si],
       [0, (st ** 2 - sn ** 2) * ci * si, st ** 2 * si * si + sn ** 2 * ci * ci],
     ];
-    close(cov, expected, 1e-8);
+    close(cov.slice(0, 3).map((row) => row.slice(0, 3)), expected, 1e-8);
+    // Zero velocity variance in the rotating frame: δv = ω×δr with ω = (v/r)·N, N = (0, −sin i, cos i).
+    // A radial error moves with the frame along T̂ = (0, cos i, sin i); an along-track error along
+    // N×T̂ = −R̂; a cross-track one not at all. So Cvv = w²(σR²·T̂T̂ᵀ + σT²·R̂R̂ᵀ), Crv = w(σR²·R̂T̂ᵀ − σT²·T̂R̂ᵀ).
+    const w = v / r; // 1/s
+    const T = [0, ci, si], R = [1, 0, 0];
+    const vv = [0, 1, 2].map((a) => [0, 1, 2].map((b) => w * w * (sr ** 2 * T[a]! * T[b]! + st ** 2 * R[a]! * R[b]!)));
+    const rv = [0, 1, 2].map((a) => [0, 1, 2].map((b) => w * (sr ** 2 * R[a]! * T[b]! - st ** 2 * T[a]! * R[b]!)));
+    close(cov.slice(3, 6).map((row) => row.slice(3, 6)), vv, 1e-12);
+    close(cov.slice(0, 3).map((row) => row.slice(3, 6)), rv, 1e-10);
   });
 });
 

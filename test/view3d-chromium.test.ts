@@ -13,7 +13,10 @@ import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromiumMissing } from '../app/report/pdf.js';
-import type { EncounterScene } from '../core/scene/encounterScene.js';
+import type { Encounter } from '../core/events/index.js';
+import { StraightLineTrajectory } from '../core/propagation/straightLine.js';
+import { buildEncounterScene, type EncounterScene } from '../core/scene/encounterScene.js';
+import { parseIso } from '../core/time/instant.js';
 import { TIERS } from '../core/risk/tiers.js';
 import { ROOT } from './support/cli.js';
 import { demoEncounterScene } from './support/encounterSceneFixture.js';
@@ -176,5 +179,27 @@ describe.skipIf(missing !== null)('3-D view in headless Chromium', () => {
     // A late setTime after dispose is harmless.
     await page.evaluate(() => window.keepclearView3d.view().setTime(10));
     expect(errors).toEqual([]);
+  });
+
+  it('an event without risk assessment, covariance or catalogue still draws (hard-body sphere, track, axes)', async () => {
+    const tca = parseIso('2026-12-07T10:00:00.000Z')!;
+    const p = new StraightLineTrajectory('100001', tca, [7000, 0, 0], [0, 7.5, 0]);
+    const s = new StraightLineTrajectory('330001', tca, [7000, 0.02, 0.01], [0, 0, 7.5]);
+    const st = (t: StraightLineTrajectory) => [...t.r0, ...t.v] as unknown as Encounter['primaryState'];
+    const bare = buildEncounterScene({
+      event: { primary: '100001', secondary: '330001', tca, missKm: 0, relativeSpeedKmS: 0, rtnKm: [0, 0, 0], approachAngleDeg: 90, entry: null, exit: null,
+        primaryState: st(p), secondaryState: st(s), primaryEpoch: tca, secondaryEpoch: tca },
+      primary: p, secondary: s,
+    });
+    expect([bare.tier, bare.covariance.combined, bare.catalogue.count]).toEqual([null, null, 0]);
+    const { page: p2, errors: e2 } = await openView(browser, url, bare, { width: 1000, height: 500 });
+    const rtn = await shot(p2, '[data-panel=rtn]', 'rtn-unassessed');
+    const earth = await shot(p2, '[data-panel=earth]', 'earth-unassessed');
+    expect(lumaVariance(rtn)).toBeGreaterThan(MIN_DRAWN_VARIANCE);
+    expect(lumaVariance(earth)).toBeGreaterThan(MIN_DRAWN_VARIANCE);
+    expect(await p2.locator('[data-panel=rtn]').textContent()).toContain('no covariance: ellipsoids not drawn');
+    expect(await p2.locator('[data-panel=earth]').textContent()).toContain('Not assessed');
+    expect(e2).toEqual([]);
+    await p2.close();
   });
 });

@@ -15,7 +15,7 @@ export async function exportEvent(db: KeepclearDb, req: ExportRequest): Promise<
     case 'cdm':
       return { fileName: x.cdmFileName(e.id), mediaType: 'text/plain', text: x.cdmTextOfEvent(db, e) };
     case 'csv':
-      return { fileName: `${base}.csv`, mediaType: 'text/csv', text: x.eventsCsv([e], (ev) => ev.seriesId ?? null) };
+      return { fileName: `${base}.csv`, mediaType: 'text/csv', text: x.eventsCsv([e]) };
     case 'json': {
       const sel = x.selectEvents(db, { event: e.id });
       return { fileName: `${base}.json`, mediaType: 'application/json', text: `${JSON.stringify(x.exportJson(db, sel, Date.now() as Instant), null, 2)}\n` };

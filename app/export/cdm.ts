@@ -4,6 +4,7 @@
  * core/events/toCdm.ts. The text is written by the CDM writer of core/formats/cdm, so an exported
  * message reads back through the same reader as any received one.
  */
+import { basename } from 'node:path';
 import { canonicalObjectId } from '../../core/elements/objectId.js';
 import type { Cdm, CdmObject } from '../../core/formats/cdm/index.js';
 import { formatCdmKvn } from '../../core/formats/cdm/index.js';
@@ -13,7 +14,7 @@ import type { Matrix } from '../../core/math/linalg.js';
 import { DECISION_AID_NOTE } from '../../core/risk/assess.js';
 import { DEFAULT_HBR_PER_OBJECT_M, hbrFromAreaM } from '../../core/risk/hardBody.js';
 import { toIso, type Instant } from '../../core/time/instant.js';
-import { getCdm, getEventExtra, getObject, getRun, type KeepclearDb, type RunRecord } from '../../db/index.js';
+import { getCdm, getEventExtra, getObject, getRun, runEphemerides, type KeepclearDb, type RunRecord } from '../../db/index.js';
 
 /** ORIGINATOR of every message Keepclear writes (508.0-B-1: the creating agency or operator). */
 export const CDM_ORIGINATOR = 'KEEPCLEAR';
@@ -35,7 +36,7 @@ export interface EphemerisSourceNote {
 
 export interface CdmExportOptions {
   readonly now?: Instant;
-  /** owner ephemerides the event's run used, by object id */
+  /** owner ephemerides the event's run used, by object id (default: what the run recorded) */
   readonly ephemerides?: readonly EphemerisSourceNote[];
 }
 
@@ -77,7 +78,8 @@ function facts(
   const area = fromMsg?.additional.areaPc;
   const own = area !== undefined ? hbrFromAreaM(area) : (obj?.hardBodyRadiusM ?? null);
   const epoch = which === 'primary' ? e.primaryEpoch : e.secondaryEpoch;
-  const oem = opts.ephemerides?.find((x) => x.objectId === id) ?? null;
+  const used = opts.ephemerides ?? runEphemerides(db, e.runId);
+  const oem = used.find((x) => x.objectId === id) ?? null;
   const stateSource = run?.kind === 'cdm' && cdm
     ? `the received CDM ${cdm.msg.header.originator} ${cdm.msg.header.messageId}`
     : oem
@@ -92,7 +94,8 @@ function facts(
     covRtn,
     covarianceSource: source,
     covarianceMethod: source.startsWith('default') ? 'DEFAULT' : 'CALCULATED',
-    ephemerisName: oem?.fileName ?? null,
+    // EPHEMERIS_NAME: the file's own name, not the folder it was imported from.
+    ephemerisName: oem ? basename(oem.fileName) : null,
     stateSource,
   };
 }

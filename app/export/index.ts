@@ -9,8 +9,9 @@ import { KeepclearError } from '../../core/errors.js';
 import { DECISION_AID_NOTE } from '../../core/risk/assess.js';
 import type { Instant } from '../../core/time/instant.js';
 import { toIso } from '../../core/time/instant.js';
-import { getEventExtra, type KeepclearDb } from '../../db/index.js';
+import { getEventExtra, runEphemerides, type KeepclearDb } from '../../db/index.js';
 import { eventToJson, runToJson } from '../eventJson.js';
+import { seriesToJson } from '../seriesJson.js';
 import { cdmTextOfEvent, type CdmExportOptions } from './cdm.js';
 import { eventsCsv } from './table.js';
 import { selectEvents, type ExportSelection, type ExportTarget } from './target.js';
@@ -53,10 +54,18 @@ const isDirectory = (p: string): boolean => existsSync(p) && statSync(p).isDirec
 
 /** The JSON document of an export: the events with their extras, and the run they belong to. */
 export function exportJson(db: KeepclearDb, sel: ExportSelection, now: Instant): Record<string, unknown> {
+  if (sel.series) {
+    // The same document as `events --series ID --json`, with the export's own facts.
+    return {
+      caution: DECISION_AID_NOTE,
+      export: { kind: sel.kind, id: sel.id, createdAt: toIso(now), events: sel.events.length },
+      ...seriesToJson(db, sel.series),
+    };
+  }
   return {
     caution: DECISION_AID_NOTE,
     export: { kind: sel.kind, id: sel.id, createdAt: toIso(now), events: sel.events.length },
-    run: sel.run ? runToJson(sel.run) : null,
+    run: sel.run ? runToJson(sel.run, sel.run.flagged, runEphemerides(db, sel.run.id)) : null,
     events: sel.events.map((e) => ({ ...eventToJson(e), extra: getEventExtra(db, e.id) ?? {} })),
   };
 }

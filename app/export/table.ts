@@ -10,10 +10,10 @@ import { toIso } from '../../core/time/instant.js';
 type Cell = string | number | null;
 
 /** Column name → value; names follow the JSON of DESIGN.md, RTN split in three. */
-const COLUMNS: readonly (readonly [string, (e: ConjunctionEvent, seriesId: string | null) => Cell])[] = [
+const COLUMNS: readonly (readonly [string, (e: ConjunctionEvent) => Cell])[] = [
   ['id', (e) => e.id],
   ['runId', (e) => e.runId],
-  ['seriesId', (_e, s) => s],
+  ['seriesId', (e) => e.seriesId ?? null],
   ['primary', (e) => e.primary],
   ['secondary', (e) => e.secondary],
   ['tca', (e) => toIso(e.tca)],
@@ -42,9 +42,9 @@ function cell(x: Cell): string {
   return /[",\r\n]/.test(t) ? `"${t.replace(/"/g, '""')}"` : t;
 }
 
-/** The CSV text; `seriesOf` gives an event's series id (null until series are stored). */
-export function eventsCsv(events: readonly ConjunctionEvent[], seriesOf: (e: ConjunctionEvent) => string | null = () => null): string {
+/** The CSV text, one row per event in the order given. */
+export function eventsCsv(events: readonly ConjunctionEvent[]): string {
   const rows = [CSV_COLUMNS.map(cell).join(',')];
-  for (const e of events) rows.push(COLUMNS.map(([, f]) => cell(f(e, seriesOf(e)))).join(','));
+  for (const e of events) rows.push(COLUMNS.map(([, f]) => cell(f(e))).join(','));
   return rows.join('\r\n') + '\r\n';
 }

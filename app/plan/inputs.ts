@@ -11,7 +11,19 @@ import type { PcCallback } from '../../core/manoeuvre/index.js';
 import { assessEncounter } from '../../core/risk/assess.js';
 import type { ScreeningVolume } from '../../core/screening/types.js';
 import { MS_PER_DAY, toIso, type Instant } from '../../core/time/instant.js';
-import { EPOCH_MATCH_MS, elementSetHistory, getRun, getSpacecraft, type KeepclearDb, type RunRecord } from '../../db/index.js';
+import { EphemerisTrajectory } from '../../core/propagation/ephemeris.js';
+import { Sgp4Trajectory } from '../../core/propagation/sgp4.js';
+import type { Trajectory } from '../../core/propagation/trajectory.js';
+import {
+  EPOCH_MATCH_MS,
+  elementSetHistory,
+  getRun,
+  getSpacecraft,
+  loadEphemeris,
+  runEphemerides,
+  type KeepclearDb,
+  type RunRecord,
+} from '../../db/index.js';
 import { RiskContext } from '../risk.js';
 
 /** Without a screening run behind the event (a received CDM), the re-screen covers TCA + this. */
@@ -25,8 +37,12 @@ export const spacecraftCommand = (id: string): string => `keepclear spacecraft -
 export interface PlanInputs {
   readonly event: ConjunctionEvent;
   readonly run: RunRecord | null;
+  /** the primary's element set: period, grid step and drag (B*), and the trajectory unless an ephemeris was screened */
   readonly primarySet: ElementSet;
   readonly secondarySet: ElementSet;
+  /** what the event was screened with: the owner ephemeris the run used for the primary, else SGP4 of its set */
+  readonly primaryTrajectory: Trajectory;
+  readonly secondaryTrajectory: Trajectory;
   readonly windowEnd: Instant;
   readonly volume: ScreeningVolume;
   readonly spacecraft: { readonly massKg: number; readonly ispS: number };
@@ -37,7 +53,7 @@ export interface PlanInputs {
 }
 
 /** The set screened (epoch within EPOCH_MATCH_MS), else the newest set at or before TCA, else the newest. */
-function elementSetFor(db: KeepclearDb, objectId: string, epoch: Instant, tca: Instant, notes: string[]): ElementSet {
+function elementSetFor(db: KeepclearDb, objectId: string, epoch: Instant, tca: Instant, notes: string[] | null): ElementSet {
   const history = elementSetHistory(db, objectId);
   if (history.length === 0)
     throw new KeepclearError('NOT_FOUND', `no element set of object ${objectId} in the database; import one (keepclear import FILE) before planning`);
@@ -45,7 +61,7 @@ function elementSetFor(db: KeepclearDb, objectId: string, epoch: Instant, tca: I
   if (exact) return exact;
   const before = history.filter((s) => s.epoch <= tca);
   const chosen = before[before.length - 1] ?? history[history.length - 1]!;
-  notes.push(
+  notes?.push(
     `object ${objectId}: the event's state epoch ${toIso(epoch)} matches no stored element set; ` +
       `planned with the set of epoch ${toIso(chosen.epoch)} (newest at or before TCA)`,
   );
@@ -84,7 +100,8 @@ function pcCallbackFor(db: KeepclearDb, e: ConjunctionEvent, notes: string[]): {
   // assessEncounter sums two radii: halves of the combined one sum to it exactly.
   const half = Number.isFinite(risk.hardBodyRadiusM) ? risk.hardBodyRadiusM / 2 : null;
   const pcOf: PcCallback = (enc: Encounter) =>
-    assessEncounter(enc, { primary: { cdmRtnM2: p }, secondary: { cdmRtnM2: s }, hbrPrimaryM: half, hbrSecondaryM: half, method }).pc;
+    // encounterModel '2d': the solver compares hundreds of moved encounters by one method (named below).
+    assessEncounter(enc, { primary: { cdmRtnM2: p }, secondary: { cdmRtnM2: s }, hbrPrimaryM: half, hbrSecondaryM: half, method, encounterModel: '2d' }).pc;
   const pcMethod = maxPc
     ? `maximum Pc (no usable covariance, as in the event's assessment), hard-body radius ${risk.hardBodyRadiusM} m`
     : `2-D ${method} Pc with the event's covariances (${risk.covarianceSource}) held fixed in RTN, hard-body radius ${risk.hardBodyRadiusM} m`;
@@ -96,8 +113,19 @@ export function planInputs(db: KeepclearDb, e: ConjunctionEvent): PlanInputs {
   const spacecraft = requireSpacecraft(db, e.primary);
   const run = getRun(db, e.runId);
   const screened = run && run.kind !== 'cdm' ? run : null;
-  const primarySet = elementSetFor(db, e.primary, e.primaryEpoch, e.tca, notes);
+  // A run that screened the primary from an owner ephemeris (OEM) recorded it: plan on it too.
+  const used = screened ? runEphemerides(db, screened.id).find((r) => r.objectId === e.primary && r.ephemerisId !== null) : undefined;
+  const oem = used ? loadEphemeris(db, used.ephemerisId!) : null;
+  const primarySet = elementSetFor(db, e.primary, e.primaryEpoch, e.tca, oem ? null : notes);
   const secondarySet = elementSetFor(db, e.secondary, e.secondaryEpoch, e.tca, notes);
+  let primaryTrajectory: Trajectory = new Sgp4Trajectory(primarySet);
+  if (oem && used) {
+    primaryTrajectory = new EphemerisTrajectory(oem, e.primary);
+    notes.push(
+      `primary ${e.primary} from the owner ephemeris ${used.fileName} (as the run screened it); its element set gives only the ` +
+        'period and drag; burns and the re-screen reach only as far as the ephemeris does',
+    );
+  }
   let windowEnd: Instant, volume: ScreeningVolume;
   if (screened) {
     windowEnd = screened.settings.end;
@@ -108,5 +136,6 @@ export function planInputs(db: KeepclearDb, e: ConjunctionEvent): PlanInputs {
     notes.push('no screening run behind this event: the re-screen covers TCA + 1 day with a 5 km sphere');
   }
   if (!(windowEnd > e.tca)) windowEnd = (e.tca + NO_RUN_WINDOW_AFTER_TCA_MS) as Instant;
-  return { event: e, run, primarySet, secondarySet, windowEnd, volume, spacecraft, ...pcCallbackFor(db, e, notes), notes };
+  const secondaryTrajectory = new Sgp4Trajectory(secondarySet);
+  return { event: e, run, primarySet, secondarySet, primaryTrajectory, secondaryTrajectory, windowEnd, volume, spacecraft, ...pcCallbackFor(db, e, notes), notes };
 }

@@ -17,7 +17,6 @@ import {
   type DirectionChoice,
   type PlanResult,
 } from '../../core/manoeuvre/index.js';
-import { Sgp4Trajectory } from '../../core/propagation/sgp4.js';
 import { DECISION_AID_NOTE } from '../../core/risk/assess.js';
 import type { ScreeningVolume } from '../../core/screening/types.js';
 import { toIso, type Instant } from '../../core/time/instant.js';
@@ -105,8 +104,8 @@ export async function planForEvent(db: KeepclearDb, eventId: string, req: PlanRe
   if (!event) throw new KeepclearError('NOT_FOUND', `no event "${eventId}"; list events with keepclear events`);
   const inputs = planInputs(db, event);
   const notes = [...inputs.notes];
-  const primary = new Sgp4Trajectory(inputs.primarySet);
-  const secondary = new Sgp4Trajectory(inputs.secondarySet);
+  const primary = inputs.primaryTrajectory;
+  const secondary = inputs.secondaryTrajectory;
   const tInputs = performance.now();
   cancelled(req.signal, 'before the trade');
 
@@ -224,5 +223,6 @@ export async function planForEvent(db: KeepclearDb, eventId: string, req: PlanRe
     });
   }
   const totalMs = performance.now() - t0;
-  return { ...base, planId, timings: { ...base.timings, totalMs }, document: { ...document, planId } };
+  const timings = { ...base.timings, totalMs };
+  return { ...base, planId, timings, document: { ...document, planId, timingsMs: { ...timings } } };
 }

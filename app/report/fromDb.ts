@@ -12,11 +12,15 @@ import {
   getObject,
   getRun,
   getSetting,
+  latestPlanOfEvent,
   listCdms,
   type KeepclearDb,
   type RunRecord,
 } from '../../db/index.js';
 import { RiskContext, TIER_SETTINGS_KEY } from '../risk.js';
+import { tryEnsureLinked } from '../series.js';
+import { runChangesModel, seriesModelOfEvent } from './seriesModel.js';
+import { planModelOf } from './planModel.js';
 import type {
   CatalogueNote,
   EncounterPlaneInput,
@@ -47,9 +51,9 @@ export interface ReportOptions {
 }
 
 export interface EventReportOptions extends ReportOptions {
-  /** the event's series (trend and RTN plots); the series feature fills it */
+  /** the event's series (trend and RTN plots); default: the event's own series; null: none */
   readonly series?: SeriesModel | null;
-  /** a manoeuvre plan for the event; the plan feature fills it */
+  /** a manoeuvre plan for the event; default: the event's newest stored plan (keepclear plan), null for none */
   readonly plan?: PlanModel | null;
 }
 
@@ -131,6 +135,7 @@ export function runReportModelFromDb(db: KeepclearDb, runId: string, opts: Repor
     catalogue: catalogueOf(db, opts),
     events: eventsOfRun(db, run.id).map((e) => eventRow(e, name)),
     flagged: run.flagged.map((f) => ({ id: f.id, reason: f.reason })),
+    changes: run.kind === 'screening' || run.kind === 'merge' ? runChangesModel(db, run.id) : null,
     thresholds: { pcPlan: t.pcPlan, pcMonitor: t.pcMonitor },
     caution: DECISION_AID_NOTE,
   };
@@ -232,7 +237,13 @@ function eventFacts(e: ConjunctionEvent, fromCdm: boolean, run: RunRecord | null
   return facts;
 }
 
+function storedPlan(db: KeepclearDb, eventId: string): PlanModel | null {
+  const p = latestPlanOfEvent(db, eventId);
+  return p ? planModelOf(p) : null;
+}
+
 export function eventReportModelFromDb(db: KeepclearDb, eventId: string, opts: EventReportOptions = {}): EventReportModel {
+  if (opts.series === undefined) tryEnsureLinked(db);
   const e = getEvent(db, eventId);
   if (!e) throw new KeepclearError('NOT_FOUND', `no event "${eventId}"; list events with keepclear events`);
   const run = getRun(db, e.runId);
@@ -260,8 +271,9 @@ export function eventReportModelFromDb(db: KeepclearDb, eventId: string, opts: E
       missDistanceM: m.missDistanceM,
       reportedPc: m.reportedPc,
     })),
-    series: opts.series ?? null,
-    plan: opts.plan ?? null,
+    // the caller's series when given (null: none), else the event's own from the linking service
+    series: opts.series !== undefined ? opts.series : seriesModelOfEvent(db, e.id, e.seriesId),
+    plan: opts.plan !== undefined ? opts.plan : storedPlan(db, e.id),
     thresholds: { pcPlan: t.pcPlan, pcMonitor: t.pcMonitor },
     caution: DECISION_AID_NOTE,
   };

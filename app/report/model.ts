@@ -64,6 +64,8 @@ export interface RunReportModel {
   /** every event of the run, by TCA */
   readonly events: readonly EventRowModel[];
   readonly flagged: readonly FlaggedModel[];
+  /** by series, against the data before the run; null: not a screening run (or not linked) */
+  readonly changes?: readonly RunChangeModel[] | null;
   /** Pc thresholds of the tiers in force (for the legend text) */
   readonly thresholds: { readonly pcPlan: number; readonly pcMonitor: number };
   readonly caution: string;
@@ -92,8 +94,49 @@ export interface SeriesModel {
   readonly id: string;
   /** the series' state in our words (new, updated, no longer predicted, …) */
   readonly state: string;
+  /** what the state means, in a sentence */
+  readonly stateMeaning?: string;
   /** in the order the data was created */
   readonly points: readonly SeriesPoint[];
+  /** the series' events in the order their data was created (the table under the trend) */
+  readonly events?: readonly SeriesEventModel[];
+  /** the change since the first sighting in words ("miss −0.850 km (closing), Pc ×1.2e+3 (rising)") */
+  readonly changeText?: string | null;
+}
+
+/** One event of a series, as the event report lists it. */
+export interface SeriesEventModel {
+  readonly id: string;
+  readonly source: 'run' | 'cdm';
+  /** the run id, or the message's originator and MESSAGE_ID */
+  readonly sourceText: string;
+  /** when its data was created (run time, CREATION_DATE), ISO */
+  readonly dataAt: string;
+  readonly hoursToTca: number;
+  readonly tca: string;
+  readonly missKm: number;
+  readonly pc: number | null;
+  readonly tier: TierId | null;
+  /** the event the report is about */
+  readonly current: boolean;
+}
+
+/** What a screening run changed, by series (the run report's "what changed" section). */
+export interface RunChangeModel {
+  readonly change: 'new' | 'updated' | 'no-longer-predicted';
+  readonly seriesId: string;
+  readonly primary: string;
+  readonly secondary: string;
+  /** the run's event; for "no longer predicted", the last sighting before the run */
+  readonly eventId: string;
+  readonly tca: string;
+  readonly missKm: number;
+  readonly previousMissKm: number | null;
+  readonly pc: number | null;
+  readonly previousPc: number | null;
+  readonly tier: TierId | null;
+  /** the series' state now, in our words */
+  readonly stateNow: string | null;
 }
 
 /**
@@ -112,9 +155,25 @@ export interface PlanModel {
     readonly achievedPc: number | null;
     readonly propellantKg: number | null;
   };
-  readonly trade: readonly { readonly leadTimeS: number; readonly deltaVMs: number; readonly achievedMissKm: number; readonly achievedPc?: number | null }[];
+  readonly trade: readonly { readonly leadTimeS: number; readonly deltaVMs: number; readonly achievedMissKm: number; readonly achievedPc?: number | null; readonly direction?: string }[];
+  /** every row of the sweep (each lead time × direction; Δv null where the target was not met), for the Δv-against-lead-time plot */
+  readonly tradeByDirection?: readonly { readonly leadTimeS: number; readonly direction: string; readonly deltaVMs: number | null }[];
+  /** the primary's orbital period (s): lead times in orbits */
+  readonly periodS?: number;
   /** how the proposal was checked (e.g. "numerical propagation, two-body + J2..J4 + drag") */
-  readonly verification?: { readonly method: string; readonly missKm: number; readonly pc: number | null; readonly notes?: readonly string[] } | null;
+  readonly verification?: {
+    readonly method: string;
+    readonly missKm: number;
+    readonly pc: number | null;
+    readonly notes?: readonly string[];
+    /** the integrated manoeuvred primary itself against the secondary, for comparison */
+    readonly fullyNumerical?: { readonly missKm: number; readonly pc: number | null } | null;
+  } | null;
+  /** when the plan was made, and the encounter without a burn */
+  readonly createdAt?: string;
+  readonly original?: { readonly tca: string; readonly missKm: number; readonly pc: number | null };
+  /** re-screen of the manoeuvred trajectory: objects screened and approaches found (new or not) */
+  readonly rescreen?: { readonly objects: number; readonly approaches: number; readonly start: string; readonly end: string } | null;
   readonly newApproaches: readonly { readonly secondary: string; readonly tca: string; readonly missKm: number; readonly pc?: number | null }[];
 }
 

@@ -1,10 +1,11 @@
-import { KeepclearError } from '../../core/errors.js';
 import { defineCommand } from '../command.js';
 import { allEventsOption, numberIn, workersOption } from '../options.js';
 
 const DEFAULT_DIR = 'keepclear-demo';
 const DEMO_DB = 'keepclear-demo.db';
-const DEMO_THRESHOLD_KM = 5;
+const REPORT_DIR = 'report';
+/** The summary lists this many events needing attention; the report lists them all. */
+const DEMO_SUMMARY_ROWS = 10;
 
 interface DemoOptions {
   out?: string;
@@ -14,16 +15,18 @@ interface DemoOptions {
 }
 
 /**
- * `keepclear demo [--out DIR]`: writes the invented operator's fleet and a synthetic catalogue
- * as TLE and OMM files, imports them through the normal import service into
- * DIR/keepclear-demo.db, screens the fleet for the demo week and writes the run's report.
+ * `keepclear demo [--out DIR]`: the invented operator's three weeks (core/synthetic/demoWeeks.ts)
+ * replayed as a weekly job would run them — each week's received messages, fleet, catalogue and
+ * history written as files and imported, the fleet screened, the events linked into series —
+ * then a report folder (the last run's report with its plots and what changed, and one report
+ * per event in the most urgent tier present, each with its series' trend) and a short summary.
  */
 export default defineCommand<DemoOptions>({
   name: 'demo',
-  summary: 'build the demo scenario (invented fleet, synthetic catalogue), screen its week, write a report',
+  summary: 'replay three weeks of the demo scenario (invented fleet, synthetic catalogue), write reports',
   synopsis: '[--out DIR] [--size N] [--workers N] [--all-events]',
   options: [
-    { flags: '--out <DIR>', description: `folder for the files, database and report (default: ./${DEFAULT_DIR})` },
+    { flags: '--out <DIR>', description: `folder for the files, database and reports (default: ./${DEFAULT_DIR})` },
     {
       flags: '--size <N>',
       description: 'objects in the synthetic catalogue (default: 30,000)',
@@ -35,72 +38,111 @@ export default defineCommand<DemoOptions>({
   examples: ['keepclear demo --out /tmp/demo', 'keepclear demo --out /tmp/small-demo --size 2000 --workers 1'],
   async run(_args, o) {
     const { mkdirSync, rmSync, writeFileSync } = await import('node:fs');
-    const { join, resolve } = await import('node:path');
-    const { formatTleFile } = await import('../../core/formats/tle/index.js');
-    const { formatOmmJson } = await import('../../core/formats/omm/index.js');
-    const { buildDemoScenario } = await import('../../core/synthetic/demo.js');
+    const { join, resolve, relative } = await import('node:path');
+    const { buildDemoWeeks } = await import('../../core/synthetic/demoWeeks.js');
+    const { TIERS, TIER_ORDER } = await import('../../core/risk/tiers.js');
     const { toIso } = await import('../../core/time/instant.js');
-    const { openDatabase, eventsOfRun } = await import('../../db/index.js');
-    const { importFile } = await import('../../app/import/index.js');
-    const { screenAndStore } = await import('../../app/screen.js');
-    const { putSetting } = await import('../../db/index.js');
+    const { openDatabase, eventsOfRun, eventsOfSeries, listSeries, putSetting } = await import('../../db/index.js');
+    const { replayDemoWeeks } = await import('../../app/demo.js');
+    const { countByState } = await import('../../app/series.js');
     // Loaded here only: the plotting library costs start-up time other commands should not pay.
-    const { renderRunReportHtml, runReportModelFromDb, SYNTHETIC_CATALOGUE_KEY } = await import('../../app/report/index.js');
+    const { writeReport, SYNTHETIC_CATALOGUE_KEY } = await import('../../app/report/index.js');
     const { eventSummary } = await import('../present/events.js');
+    const { seriesCounts } = await import('../present/series.js');
     const { progress } = await import('../present/progress.js');
 
+    const t0 = performance.now();
     const dir = resolve(o.out ?? DEFAULT_DIR);
     mkdirSync(dir, { recursive: true });
-    process.stderr.write('demo: building the synthetic world…\n');
-    const scenario = buildDemoScenario(o.size === undefined ? {} : { catalogSize: o.size });
-    const files = {
-      history: join(dir, 'fleet-history.tle'),
-      fleet: join(dir, 'fleet.tle'),
-      catalog: join(dir, 'catalog.json'),
-    };
-    writeFileSync(files.history, formatTleFile(Object.values(scenario.history).flat()));
-    writeFileSync(files.fleet, formatTleFile(scenario.fleet));
-    writeFileSync(files.catalog, formatOmmJson(scenario.catalog));
+    process.stderr.write('demo: building the synthetic world (three weekly catalogues)…\n');
+    const demo = buildDemoWeeks(o.size === undefined ? {} : { catalogSize: o.size });
+    const catalogSize = demo.weeks[2].catalog.length;
 
     const dbPath = join(dir, DEMO_DB);
-    // A fresh database each time, so the demo always shows the same week.
+    const reportDir = join(dir, REPORT_DIR);
+    // A fresh database and report folder each time, so the demo always shows the same weeks.
     for (const suffix of ['', '-wal', '-shm']) rmSync(dbPath + suffix, { force: true });
+    rmSync(reportDir, { recursive: true, force: true });
+    mkdirSync(reportDir, { recursive: true });
     const db = openDatabase(dbPath);
-    const bar = progress('demo: screening');
+    let bar = progress('demo: screening week 1');
     try {
-      for (const f of [files.history, files.fleet, files.catalog]) {
-        const outcome = importFile(db, f);
-        if (!outcome.ok) throw outcome.error;
-        const c = outcome.counts;
-        process.stderr.write(`demo: imported ${f}: ${c.imported} new, ${c.updated} updated, ${c.rejected} rejected\n`);
-      }
       putSetting(db, SYNTHETIC_CATALOGUE_KEY, {
-        text: `Synthetic catalogue: the ${scenario.catalog.length} objects screened are invented for the demo (operator ${scenario.operator.name}); none is a real object.`,
+        text: `Synthetic catalogue: the ${catalogSize} objects screened are invented for the demo (operator ${demo.operator.name}); none is a real object.`,
       });
-      const fleetIds = scenario.fleet.map((f) => f.objectId);
-      const { run } = await screenAndStore(db, {
-        settings: { start: scenario.start, end: scenario.end, volume: { kind: 'sphere', radiusKm: DEMO_THRESHOLD_KM }, primaries: fleetIds },
+      let barWeek = 1;
+      const weeks = await replayDemoWeeks(db, dir, demo, {
         ...(o.workers !== undefined ? { workers: o.workers } : {}),
-        onProgress: bar.update,
+        onFile: (week, f) => {
+          if (f.ok) process.stderr.write(`demo: week ${week}: imported ${relative(dir, f.file)}: ${f.counts.imported} new, ${f.counts.updated} updated, ${f.counts.rejected} rejected\n`);
+        },
+        onProgress: (week, done, total) => {
+          if (week !== barWeek) {
+            bar.stop();
+            bar = progress(`demo: screening week ${week}`);
+            barWeek = week;
+          }
+          bar.update(done, total);
+        },
       });
       bar.stop();
-      if (run.status !== 'done') throw new KeepclearError('INTERNAL', `the demo screening ended ${run.status}`);
-      const events = eventsOfRun(db, run.id);
-      const reportPath = join(dir, `report-${run.id}.html`);
-      const title = `${scenario.operator.name} — conjunction screening, week of ${toIso(scenario.start).slice(0, 10)}`;
-      writeFileSync(reportPath, await renderRunReportHtml(runReportModelFromDb(db, run.id, { title })));
-      const found = scenario.planted.filter((p) =>
-        events.some((e) => e.primary === p.primary && e.secondary === p.secondary && Math.abs(e.tca - p.tca) < 1000),
-      ).length;
-      const days = (scenario.end - scenario.start) / 86_400_000;
-      process.stdout.write(
-        `${scenario.operator.name}: ${scenario.fleet.length} spacecraft screened against ${scenario.catalog.length} objects ` +
-          `(synthetic catalogue), ${toIso(scenario.start)} + ${days} days, ${DEMO_THRESHOLD_KM} km sphere\n` +
-          `${events.length} event(s) in run ${run.id} (${((run.wallMs ?? 0) / 1000).toFixed(1)} s); ` +
-          `${found} of ${scenario.planted.length} planted encounters found\n` +
-          `database: ${dbPath}\nreport:   ${reportPath}\n\n`,
+
+      // The designed approaches against what the series say (core/synthetic/demoDesigns.ts).
+      const pairOf = (a: string, b: string) => [a, b].sort().join('/');
+      let asDesigned = 0;
+      for (const a of demo.approaches) {
+        const s = listSeries(db, { objectId: a.secondary }).filter(
+          (x) => pairOf(x.primary, x.secondary) === pairOf(a.primary, a.secondary) && Math.abs(x.tca - a.tca) < 1_400_000,
+        );
+        const seenBy = s.length === 1 ? eventsOfSeries(db, s[0]!.id).filter((m) => m.source.kind === 'screening').map((m) => m.source.id) : [];
+        const expected = a.expected.flatMap((x, k) => (x === 'seen' ? [weeks[k]!.run.id] : []));
+        if (s.length === 1 && s[0]!.state === a.finalState && seenBy.join() === expected.join()) asDesigned++;
+      }
+
+      const last = weeks[2]!.run;
+      const events = eventsOfRun(db, last.id);
+      const runReport = join(reportDir, `run-${last.id}.html`);
+      const title = `${demo.operator.name} — conjunction screening, week of ${toIso(last.dataAt).slice(0, 10)}`;
+      await writeReport(db, { run: last.id }, runReport, { title });
+      // One report per event in the most urgent tier present (above the lowest: a routine week
+      // gets no event reports).
+      const urgent = TIER_ORDER.slice(0, -1).find((t) => events.some((e) => e.risk?.tier === t)) ?? null;
+      const eventReports: string[] = [];
+      for (const e of urgent ? events.filter((x) => x.risk?.tier === urgent) : []) {
+        const path = join(reportDir, `event-${e.id}.html`);
+        await writeReport(db, { event: e.id }, path);
+        eventReports.push(path);
+      }
+      const ids = new Set(events.flatMap((e) => (e.seriesId ? [e.seriesId] : [])));
+      for (const s of listSeries(db, { states: ['no-longer-predicted'] })) ids.add(s.id);
+
+      const weekLines = weeks.map(
+        (w) => `  week ${w.week.week} (${toIso(w.run.dataAt).slice(0, 10)}): run ${w.run.id}, ${w.run.eventCount ?? 0} event(s), ` +
+          `${((w.run.wallMs ?? 0) / 1000).toFixed(1)} s screening${w.week.messages.length ? `; ${w.week.messages.length} received CDM(s) imported first` : ''}`,
       );
-      process.stdout.write(eventSummary(events, o.allEvents === true));
+      const summary = [
+        `${demo.operator.name}: ${demo.weeks[2].fleet.length} spacecraft screened weekly against ${catalogSize} objects (synthetic catalogue), ` +
+          `${(last.settings.end - last.settings.start) / 86_400_000} days ahead, ${last.settings.volume.kind === 'sphere' ? `${last.settings.volume.radiusKm} km sphere` : 'RTN ellipsoid'}`,
+        ...weekLines,
+        `${asDesigned} of ${demo.approaches.length} designed approaches behave as designed (one grows riskier, one goes away, one appears, one is past)`,
+        '',
+        `Week ${weeks[2]!.week.week}, run ${last.id}:`,
+      ].join('\n');
+      process.stdout.write(`${summary}\n`);
+      process.stdout.write(
+        eventSummary(events, o.allEvents === true, [
+          `${seriesCounts(countByState(db, ids))} (keepclear events --db ${dbPath} --series ID shows one)`,
+          `Reports:  ${reportDir}`,
+          `  run report (plots, what changed): ${runReport}`,
+          ...(urgent
+            ? [`  ${eventReports.length} event report(s), tier ${TIERS[urgent].label}: ${eventReports.map((p) => relative(reportDir, p)).join(', ')}`]
+            : ['  no event above the lowest tier: no event reports']),
+          `Database: ${dbPath}`,
+          `Inputs:   ${join(dir, 'week-*')} (catalogues, fleet, history, received CDMs)`,
+          `Done in ${((performance.now() - t0) / 1000).toFixed(1)} s.`,
+        ], undefined, DEMO_SUMMARY_ROWS),
+      );
+      writeFileSync(join(reportDir, 'README.txt'), `Keepclear demo reports for ${demo.operator.name} (synthetic catalogue; invented operator).\nrun-${last.id}.html: the week's run report. event-*.html: the events of tier ${urgent ? TIERS[urgent].label : '—'}.\n`);
       return 0;
     } finally {
       bar.stop();

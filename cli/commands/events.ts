@@ -34,17 +34,18 @@ export default defineCommand<EventsOptions>({
     if (o.run !== undefined && o.series !== undefined) {
       throw new KeepclearError('BAD_ARGUMENT', 'give either --run or --series, not both');
     }
-    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns, latestPlanSummaries } = await import('../../db/index.js');
+    const { openDatabase, defaultDbPath, eventsOfRun, getEventExtra, getRun, latestRun, listRuns, latestPlanSummaries, runEphemerides } = await import('../../db/index.js');
     const { planCell, planSummaryToJson } = await import('../../app/plan/summary.js');
     const { eventToJson, runToJson } = await import('../../app/eventJson.js');
-    const { ensureLinked, seriesView, countByState } = await import('../../app/series.js');
+    const { tryEnsureLinked, seriesView, countByState } = await import('../../app/series.js');
     const { seriesStatesOf, seriesToJson } = await import('../../app/seriesJson.js');
     const { eventSummary } = await import('../present/events.js');
     const { seriesCounts, seriesSummary } = await import('../present/series.js');
     const { writeJsonWithCaution } = await import('../present/json.js');
     const db = openDatabase(o.db ?? defaultDbPath());
     try {
-      linkIfWritable(db, ensureLinked);
+      // Events stored before series existed are linked on first read.
+      tryEnsureLinked(db);
       if (o.series !== undefined) {
         const view = seriesView(db, o.series);
         if (!view) throw new KeepclearError('NOT_FOUND', `no series "${o.series}"; every event's seriesId is in keepclear events --json -`);
@@ -67,7 +68,7 @@ export default defineCommand<EventsOptions>({
       const plans = latestPlanSummaries(db, events.map((e) => e.id));
       if (o.json !== undefined) {
         writeJsonWithCaution(o.json, {
-          run: run ? runToJson(run) : null,
+          run: run ? runToJson(run, run.flagged, runEphemerides(db, run.id)) : null,
           // Extras (e.g. a message's reported Pc, kept apart from Keepclear's own) ride along.
           // plan: the event's newest manoeuvre plan (keepclear plan), null when none.
           events: events.map((e) => {
@@ -90,15 +91,3 @@ export default defineCommand<EventsOptions>({
     }
   },
 });
-
-/**
- * Events stored before series existed are linked on first read; a database that cannot be
- * written (read-only file, held lock) is still shown, without the missing series ids.
- */
-function linkIfWritable(db: import('../../db/index.js').KeepclearDb, link: (d: typeof db) => unknown): void {
-  try {
-    link(db);
-  } catch (err) {
-    if (!(err instanceof KeepclearError && err.code.startsWith('DATABASE_'))) throw err;
-  }
-}

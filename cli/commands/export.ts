@@ -6,6 +6,7 @@ interface ExportOptions {
   db?: string;
   run?: string;
   event?: string;
+  series?: string;
   format?: 'cdm' | 'csv' | 'json';
   out?: string;
 }
@@ -13,16 +14,17 @@ interface ExportOptions {
 const FORMATS = ['cdm', 'csv', 'json'] as const;
 
 /**
- * `keepclear export (--event ID | --run ID) --format cdm|csv|json --out FILE [--db FILE]`:
+ * `keepclear export (--event ID | --run ID | --series ID) --format cdm|csv|json --out FILE [--db FILE]`:
  * stored events as CCSDS CDMs (KVN, one per event), or as a CSV or JSON list.
  */
 export default defineCommand<ExportOptions>({
   name: 'export',
   summary: 'write events as CCSDS CDM messages (KVN) or as a CSV or JSON list',
-  synopsis: '(--event ID | --run ID) --format cdm|csv|json --out FILE [--db FILE]',
+  synopsis: '(--event ID | --run ID | --series ID) --format cdm|csv|json --out FILE [--db FILE]',
   options: [
     { flags: '--event <ID>', description: 'export this event (R12-3)' },
     { flags: '--run <ID>', description: 'export every event of this run (R12)' },
+    { flags: '--series <ID>', description: 'export every event of this series (S-R12-3), oldest data first' },
     {
       flags: '--format <FORMAT>',
       description: 'cdm (one CCSDS 508.0-B-1 KVN message per event), csv or json (a list, JSON with the caution)',
@@ -36,7 +38,7 @@ export default defineCommand<ExportOptions>({
     },
     {
       flags: '--out <FILE>',
-      description: 'output file; for --format cdm of a run, a folder that receives one EVENT.cdm per event',
+      description: 'output file; for --format cdm of a run or series, a folder that receives one EVENT.cdm per event',
     },
     dbOption,
   ],
@@ -44,16 +46,18 @@ export default defineCommand<ExportOptions>({
     'keepclear export --event R12-3 --format cdm --out R12-3.cdm',
     'keepclear export --run R12 --format cdm --out messages/',
     'keepclear export --run R12 --format csv --out week.csv',
+    'keepclear export --series S-R12-3 --format json --out series.json',
   ],
   async run(_args, o) {
-    if ((o.run === undefined) === (o.event === undefined))
-      throw new KeepclearError('BAD_ARGUMENT', 'give exactly one of --event ID or --run ID; e.g. keepclear export --run R1 --format csv --out week.csv');
+    const given = [o.event, o.run, o.series].filter((x) => x !== undefined).length;
+    if (given !== 1)
+      throw new KeepclearError('BAD_ARGUMENT', 'give exactly one of --event ID, --run ID or --series ID; e.g. keepclear export --run R1 --format csv --out week.csv');
     if (o.format === undefined) throw new KeepclearError('BAD_ARGUMENT', 'give --format cdm, csv or json');
-    if (o.out === undefined) throw new KeepclearError('BAD_ARGUMENT', 'give --out FILE (a folder for the CDMs of a run)');
+    if (o.out === undefined) throw new KeepclearError('BAD_ARGUMENT', 'give --out FILE (a folder for the CDMs of a run or series)');
     const { openDatabase, defaultDbPath } = await import('../../db/index.js');
     const { exportEvents } = await import('../../app/export/index.js');
     const { DECISION_AID_NOTE } = await import('../../core/risk/assess.js');
-    const target = o.run !== undefined ? { run: o.run } : { event: o.event! };
+    const target = o.run !== undefined ? { run: o.run } : o.series !== undefined ? { series: o.series } : { event: o.event! };
     const db = openDatabase(o.db ?? defaultDbPath());
     try {
       const r = exportEvents(db, target, o.format, o.out);

@@ -11,11 +11,12 @@ import exportCommand from './export.js';
 import importCommand from './import.js';
 import plan from './plan.js';
 import report from './report.js';
+import merge from './merge.js';
 import screen from './screen.js';
 import serve from './serve.js';
 import spacecraft from './spacecraft.js';
 
 // Each spec is typed by its own options; the registry only needs to hand them to commander.
 export const COMMANDS: readonly CommandSpec<never>[] = [
-  importCommand, screen, events, report, exportCommand, plan, spacecraft, demo, serve,
+  importCommand, screen, merge, events, report, exportCommand, plan, spacecraft, demo, serve,
 ];

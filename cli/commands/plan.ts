@@ -68,6 +68,9 @@ export default defineCommand<PlanOptions>({
       });
       bars.trade.stop();
       bars.rescreen.stop();
+      // The plan is shown (and stored) first: a file that cannot be written loses nothing else.
+      if (o.json !== undefined) writeJsonWithCaution(o.json, { ...plan.document });
+      if (o.json !== '-') process.stdout.write(planText(plan));
       const written: string[] = [];
       if (o.oem !== undefined) {
         writeFileSync(o.oem, planOemText(plan));
@@ -77,8 +80,6 @@ export default defineCommand<PlanOptions>({
         writeFileSync(o.opm, planOpmText(plan));
         written.push(`OPM ${o.opm}`);
       }
-      if (o.json !== undefined) writeJsonWithCaution(o.json, { ...plan.document });
-      if (o.json !== '-') process.stdout.write(planText(plan));
       if (written.length > 0) process.stderr.write(`plan: wrote ${written.join(', ')}\n`);
       return 0;
     } finally {

@@ -2,8 +2,9 @@ import { KeepclearError } from '../../core/errors.js';
 import { canonicalObjectId } from '../../core/elements/objectId.js';
 import { parseIso, type Instant } from '../../core/time/instant.js';
 import type { ScreeningSettings, ScreeningVolume } from '../../core/screening/types.js';
+import type { ShardSpec } from '../../core/screening/spatial/shard.js';
 import { defineCommand, type ValueParser } from '../command.js';
-import { allEventsOption, dbOption, jsonOption, numberIn, repeatable, workersOption } from '../options.js';
+import { allEventsOption, dbOption, jsonOption, numberIn, parseShard, repeatable, workersOption } from '../options.js';
 
 const DEFAULT_DAYS = 7;
 const DEFAULT_THRESHOLD_KM = 5;
@@ -13,6 +14,7 @@ interface ScreenOptions {
   catalog?: string[];
   primary?: string[];
   all?: boolean;
+  shard?: ShardSpec;
   start?: Instant;
   days?: number;
   thresholdKm?: number;
@@ -59,6 +61,11 @@ const isoStart: ValueParser<Instant> = (text, previous) => {
   return t;
 };
 
+const shardOf: ValueParser<ShardSpec> = (text, previous) => {
+  once('shard', previous);
+  return parseShard(text);
+};
+
 const rtnSemiAxes: ValueParser<[number, number, number]> = (text, previous) => {
   once('volume-rtn-km', previous);
   const parts = text.split(',').map((x) => Number(x.trim()));
@@ -81,6 +88,16 @@ export function settingsFrom(o: ScreenOptions, now: number): ScreeningSettings {
     ? { kind: 'rtn-ellipsoid', rKm: o.volumeRtnKm[0], tKm: o.volumeRtnKm[1], nKm: o.volumeRtnKm[2] }
     : { kind: 'sphere', radiusKm: o.thresholdKm ?? DEFAULT_THRESHOLD_KM };
   const end = (start + (o.days ?? DEFAULT_DAYS) * MS_PER_DAY) as Instant;
+  if (o.shard) {
+    if (!o.all) throw new KeepclearError('BAD_ARGUMENT', '--shard K/N splits an all-vs-all run: give it with --all');
+    if (o.json === undefined) {
+      throw new KeepclearError('BAD_ARGUMENT', "--shard K/N needs --json FILE: a shard's result is a file that keepclear merge joins with the others");
+    }
+    if (o.attentionExit !== undefined || o.attentionFile !== undefined || o.attentionTier !== undefined) {
+      throw new KeepclearError('BAD_ARGUMENT', 'the --attention-* options judge a whole run; a shard is part of one (use them after keepclear merge)');
+    }
+    return { start, end, volume, primaries: 'all', shard: o.shard };
+  }
   return { start, end, volume, primaries: o.all ? 'all' : o.primary! };
 }
 
@@ -92,12 +109,17 @@ export default defineCommand<ScreenOptions>({
   name: 'screen',
   summary: 'screen primaries (or all objects) against the catalogue for close approaches',
   synopsis:
-    '[--catalog FILE]... (--primary ID[,ID...] | --all) [--start ISO8601] [--days N] ' +
+    '[--catalog FILE]... (--primary ID[,ID...] | --all) [--shard K/N] [--start ISO8601] [--days N] ' +
     '[--threshold-km X | --volume-rtn-km R,T,N] [--db FILE] [--json FILE|-] [--workers N] [--all-events]',
   options: [
     { flags: '--catalog <FILE>', description: 'import this catalogue file first (repeatable)', parse: repeatable },
     { flags: '--primary <ID[,ID...]>', description: 'catalogue numbers of the primaries (Alpha-5 allowed)', parse: primaryIds },
     { flags: '--all', description: 'every object is a primary (all-vs-all)' },
+    {
+      flags: '--shard <K/N>',
+      description: 'with --all: screen only the K-th of N parts of the pairs and write it to --json; keepclear merge joins the N parts (docs/sharding.md)',
+      parse: shardOf,
+    },
     { flags: '--start <ISO8601>', description: 'window start, UTC (default: now)', parse: isoStart },
     {
       flags: '--days <N>',
@@ -133,6 +155,7 @@ export default defineCommand<ScreenOptions>({
   examples: [
     'keepclear screen --catalog catalog.json --primary 80001,80003 --start 2026-12-07T00:00:00Z --days 7',
     'keepclear screen --all --days 1 --threshold-km 5 --json run.json',
+    'keepclear screen --all --days 1 --shard 2/7 --start 2026-12-07T00:00:00Z --json shard-2.json',
     'keepclear screen --catalog week.json --primary 100001,100002 --attention-tier plan --attention-exit 10 --attention-file /var/lib/keepclear/ATTENTION.json',
   ],
   async run(_args, o) {
@@ -149,6 +172,7 @@ export default defineCommand<ScreenOptions>({
     const { eventSummary } = await import('../present/events.js');
     const { writeJsonWithCaution } = await import('../present/json.js');
     const { progress } = await import('../present/progress.js');
+    const { describeEphemeris } = await import('../../app/ephemerisText.js');
 
     const jsonOnly = o.json === '-';
     const db = openDatabase(o.db ?? defaultDbPath());
@@ -165,17 +189,40 @@ export default defineCommand<ScreenOptions>({
         presentImportTotal(summary, out);
         if (!summary.clean) exit = 1;
       }
-      const { run, events } = await screenAndStore(db, {
+      if (settings.shard) {
+        const { screenShard } = await import('../../app/shards.js');
+        const r = await screenShard(db, {
+          settings: { ...settings, shard: settings.shard },
+          ...(o.workers !== undefined ? { workers: o.workers } : {}),
+          onProgress: bar.update,
+          signal: controller.signal,
+        });
+        bar.stop();
+        for (const f of r.flagged) process.stderr.write(`keepclear: flagged ${f.id}: ${f.reason}\n`);
+        writeJsonWithCaution(o.json!, r.doc);
+        if (r.cancelled) process.stderr.write('keepclear: screening cancelled; the shard is marked cancelled and merge will refuse it\n');
+        if (!jsonOnly) {
+          process.stdout.write(
+            `shard ${settings.shard.index}/${settings.shard.count}: ${r.eventCount} event(s), ${r.objects} objects, ` +
+              `${(r.wallMs / 1000).toFixed(2)} s; written to ${o.json}. Join all ${settings.shard.count} shards with keepclear merge.\n`,
+          );
+        }
+        return r.cancelled ? 1 : exit;
+      }
+      const { run, events, ephemerides, notes } = await screenAndStore(db, {
         settings,
         ...(o.workers !== undefined ? { workers: o.workers } : {}),
         onProgress: bar.update,
         signal: controller.signal,
       });
       bar.stop();
+      // Which source each primary was screened from, on stderr (stdout may carry only JSON).
+      for (const e of ephemerides) process.stderr.write(`primary ${e.objectId}: ephemeris: ${describeEphemeris(e)}\n`);
+      for (const n of notes) process.stderr.write(`keepclear: ${n}\n`);
       for (const f of run.flagged) process.stderr.write(`keepclear: flagged ${f.id}: ${f.reason}\n`);
       if (run.status === 'cancelled') process.stderr.write('keepclear: screening cancelled; partial results stored\n');
       const states = seriesStatesOf(db, events);
-      if (o.json !== undefined) writeJsonWithCaution(o.json, { run: runToJson(run), events: events.map((e) => eventToJson(e, states)) });
+      if (o.json !== undefined) writeJsonWithCaution(o.json, { run: runToJson(run, run.flagged, ephemerides), events: events.map((e) => eventToJson(e, states)) });
       const attention = attentionOf(events, o.attentionTier ?? DEFAULT_ATTENTION_TIER);
       if (o.attentionFile !== undefined) {
         // A cancelled run saw only part of the window: it can raise the flag, never clear it.

@@ -72,6 +72,8 @@ export function eventSummary(
   all: boolean,
   more: readonly string[] = [],
   plans?: ReadonlyMap<string, string>,
+  /** at most this many rows of "needing attention" (the demo's short summary); the rest are counted */
+  maxRows = Infinity,
 ): string {
   const out: string[] = [`Events by tier: ${tierCounts(events)}`];
   if (events.length === 0) {
@@ -81,7 +83,13 @@ export function eventSummary(
   } else {
     const attention = events.filter(needsAttention).sort(byConcern);
     out.push('');
-    if (attention.length > 0) out.push(`Needing attention (${attention.length}), highest Pc first:`, eventTable(attention, plans));
+    if (attention.length > maxRows) {
+      out.push(
+        `Needing attention (${attention.length}), the ${maxRows} with the highest Pc:`,
+        eventTable(attention.slice(0, maxRows), plans),
+        `${attention.length - maxRows} more needing attention: in the report, with --all-events, or in --json.`,
+      );
+    } else if (attention.length > 0) out.push(`Needing attention (${attention.length}), highest Pc first:`, eventTable(attention, plans));
     else out.push(`No event above ${labelOf(LOWEST_TIER)}.`);
     const rest = events.length - attention.length;
     if (rest > 0) {

@@ -7,3 +7,4 @@ export { principalAxes, ellipsePolyline, circlePolyline, ellipseHalfExtents, typ
 export { formatPc, PC_PLOT_FLOOR, PLOT_CONFIG, type PlotSpec } from './style.js';
 export { NOT_ASSESSED, tierLabel } from './tierScales.js';
 export type { GlanceEvent, GlanceInput, EncounterPlaneInput, SeriesPoint, SeriesSource, TrendInput, RtnSingleInput } from './inputs.js';
+export { planTradeSpec, PLAN_TRADE_MARKS, type PlanTradeInput } from './planTrade.js';

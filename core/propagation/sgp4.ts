@@ -106,8 +106,10 @@ export function makeSatrec(es: ElementSet): SatRec {
 function domainFailure(es: ElementSet): FailureReason | null {
   if (!(es.eccentricity >= 0 && es.eccentricity < 1)) return 'bad-mean-eccentricity';
   if (!(es.meanMotion > 0)) return 'negative-mean-motion';
-  const finite = [es.inclinationDeg, es.raanDeg, es.argPerigeeDeg, es.meanAnomalyDeg, es.bstar, es.epoch];
-  return finite.every(Number.isFinite) ? null : 'bad-elements';
+  const fin = Number.isFinite; // written out: runs once per object of a run (no array)
+  return fin(es.inclinationDeg) && fin(es.raanDeg) && fin(es.argPerigeeDeg) && fin(es.meanAnomalyDeg) && fin(es.bstar) && fin(es.epoch)
+    ? null
+    : 'bad-elements';
 }
 
 /** SGP4/SDP4 trajectory of one element set. Never throws: failures come back as reasons. */

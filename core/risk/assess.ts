@@ -25,6 +25,12 @@ export { DECISION_AID_NOTE } from './decisionAid.js';
 export interface CovarianceInput {
   /** covariance from a received CDM at TCA, RTN (CDM order R, T, N, …), 6×6 or 3×3, m² */
   readonly cdmRtnM2?: Matrix | null;
+  /**
+   * the owner's covariance from an OEM covariance block (3×3 position, RTN, m²), after a
+   * received CDM and before the element-set history; `source` names the file, `note` says which
+   * block was taken and that it was not propagated
+   */
+  readonly ephemeris?: { readonly rtnM2: Matrix; readonly source: string; readonly note: string } | null;
   /** the object's element sets, ascending epochs, newest last */
   readonly history?: readonly ElementSet[] | null;
   /** the element set used for the encounter (gives regime and age for the default table) */
@@ -104,6 +110,10 @@ function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch:
     return { inertialM2: null, inertial6: null, rtnM2: null, source: 'cdm (unusable)', doubtful: true, notes: [input.cdmDoubtfulNote] };
   }
   if (input.cdmRtnM2) return graded(input.cdmRtnM2, 'cdm');
+  if (input.ephemeris) {
+    const g = graded(input.ephemeris.rtnM2, input.ephemeris.source);
+    return { ...g, notes: [...g.notes, `${label}: ${input.ephemeris.note}`] };
+  }
   if (input.history) {
     const h = covarianceFromHistory(input.history, tca);
     if (h) return graded(h.rtn6, h.source);
@@ -117,11 +127,13 @@ function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch:
 }
 
 /**
- * Risk of one encounter. Covariance per object: CDM → element-set history → default table.
- * With both covariances usable: short-encounter 2-D Pc. When a covariance is missing or
- * "doubtful" (non-finite, asymmetric, or indefinite beyond rounding — see covariancePsd.ts; or
- * the projected 2×2 is singular): maximum Pc over an isotropic covariance of unknown size
- * (Alfano 2005), which is an upper bound and says so in pcMethod.
+ * Risk of one encounter. Covariance per object: CDM → owner ephemeris (OEM) → element-set history → default table, each
+ * judged by the one PSD policy (covariancePsd.ts). With both covariances usable: the short-
+ * encounter 2-D Pc, or — where the short-encounter check (shortEncounter.ts) fails and
+ * encounterModel is 'auto' — the 3-D Pc (pc3d.ts, Coppola 2012), named in pcMethod with the 2-D
+ * value in the warnings. When a covariance is missing or refused (not PSD beyond rounding, all
+ * zero, non-finite, asymmetric; or the projected 2×2 is singular): maximum Pc over an isotropic
+ * covariance of unknown size (Alfano 2005), which is an upper bound and says so in pcMethod.
  */
 export function assessEncounter(encounter: Encounter, inputs: AssessInputs): RiskAssessment {
   const thresholds = { ...DEFAULT_TIER_THRESHOLDS, ...inputs.thresholds };

@@ -61,13 +61,15 @@ export interface AdaptiveResult {
 /**
  * ∫ f over [breaks[0], breaks[last]], starting from the given breakpoints (ascending), bisecting
  * the interval with the largest error until Σerror ≤ relTol·|Σvalue| (or every piece is at
- * its rounding floor, or maxIntervals is reached → converged = false).
+ * its rounding floor, or maxIntervals is reached → converged = false). With absTol > 0 it also
+ * stops once Σerror ≤ absTol (for integrals whose size below some level does not matter).
  */
 export function integrateAdaptive(
   f: (x: number) => number,
   breaks: readonly number[],
   relTol: number,
   maxIntervals = 4000,
+  absTol = 0,
 ): AdaptiveResult {
   const pieces: Piece[] = [];
   for (let i = 0; i + 1 < breaks.length; i++) {
@@ -85,7 +87,7 @@ export function integrateAdaptive(
         worst = i;
       }
     }
-    if (error <= relTol * Math.abs(value) || worstErr === 0)
+    if (error <= Math.max(relTol * Math.abs(value), absTol) || worstErr === 0)
       return { value, errorEstimate: error, intervals: pieces.length, converged: true };
     if (pieces.length >= maxIntervals)
       return { value, errorEstimate: error, intervals: pieces.length, converged: false };

@@ -65,8 +65,9 @@ export function propagateTwoBody(x: State6, dt: number, mu = MU_M3_S2): State6 {
   ];
 }
 
-/** Central-difference steps of the state transition matrix: 1 m and 1 mm/s. The truncation
- * error is ~(h/|r|)² relative (1e-14) and the rounding error ~ε·|r|/h (1e-9 relative). */
+/** Forward-difference steps of the state transition matrix: 1 m and 1 mm/s. The truncation
+ * error is ~h/|r| relative (1.5e-7 in LEO) and the rounding error ~ε·|r|/h (1.6e-9): far below
+ * what a covariance needs, at half the cost of central differences. */
 const STM_STEP_POSITION_M = 1;
 const STM_STEP_VELOCITY_MPS = 1e-3;
 
@@ -76,11 +77,10 @@ export function propagateWithStm(x: State6, dt: number, mu = MU_M3_S2): { state:
   const stm = Array.from({ length: 6 }, () => new Array<number>(6).fill(0));
   for (let k = 0; k < 6; k++) {
     const h = k < 3 ? STM_STEP_POSITION_M : STM_STEP_VELOCITY_MPS;
-    const plus = x.slice() as number[], minus = x.slice() as number[];
+    const plus = x.slice() as number[];
     plus[k]! += h;
-    minus[k]! -= h;
-    const a = propagateTwoBody(plus as unknown as State6, dt, mu), b = propagateTwoBody(minus as unknown as State6, dt, mu);
-    for (let i = 0; i < 6; i++) stm[i]![k] = (a[i]! - b[i]!) / (2 * h);
+    const a = propagateTwoBody(plus as unknown as State6, dt, mu);
+    for (let i = 0; i < 6; i++) stm[i]![k] = (a[i]! - state[i]!) / h;
   }
   return { state, stm };
 }

@@ -54,6 +54,13 @@ export class ScreeningChunk {
     this.session = new ScreeningSession(settings);
   }
 
+  /** Checks every object's propagation over the window (flagging failures); returns how many fail. */
+  checkPropagation(): number {
+    let failed = 0;
+    for (const o of this.objects) if (this.session.validUntil(o) === null) failed++;
+    return failed;
+  }
+
   /** Computes grids of the given primaries into the shared buffer; returns their layout. */
   buildGrids(layout: readonly { id: string; offset: number; count: number; stepMs: number }[], shared: Float64Array): GridLayout[] {
     const out: GridLayout[] = [];

@@ -2,7 +2,10 @@ import type { Instant } from '../time/instant.js';
 import type { OrbitModel } from './orbitModel.js';
 import type { StateGrid } from './primaryGrid.js';
 import { TRACK_STRIDE } from './planarTrack.js';
-import { secondaryPlaneWindows, type Windows } from './secondaryWindows.js';
+import { secondaryPlaneWindows, type SecondaryBlocks } from './secondaryWindows.js';
+import { intersectRegions, pushRegion, type Regions } from './regions.js';
+
+export type { Regions } from './regions.js';
 
 /**
  * Candidate time regions of one primary–secondary pair, by conservative filters (the time and
@@ -29,20 +32,6 @@ const NORMAL_INTERP_KM = 0.05;
 /** Step inside regions where the distance bound is already below D (ms). */
 const INSIDE_STEP_MS = 10_000;
 
-/** Time regions as a flat list [a0, b0, a1, b1, …] (ms), sorted and disjoint: no tuple per region. */
-export type Regions = number[];
-
-/** Appends [a, b] ∩ [lo, hi] to sorted regions, merging with the last one when they touch. */
-function pushRegion(regions: Regions, a: number, b: number, lo: number, hi: number): void {
-  if (a < lo) a = lo;
-  if (b > hi) b = hi;
-  if (b < a) return;
-  const n = regions.length;
-  if (n > 0 && regions[n - 1]! >= a) {
-    if (b > regions[n - 1]!) regions[n - 1] = b;
-  } else regions.push(a, b);
-}
-
 export interface FilterStats {
   planeVisits: number;
   distanceVisits: number;
@@ -56,11 +45,14 @@ export function candidateRegions(
   end: Instant,
   stats?: FilterStats,
   p?: OrbitModel | null,
+  /** tables shared between the pairs of one secondary / one primary (secondaryWindows.ts) */
+  shared?: { readonly blocks: SecondaryBlocks | null; readonly normals: Float64Array } | null,
 ): Regions {
   // Filter 1b first (cheapest, most selective): the secondary must be near the primary's mean
   // plane. The primary's true position is within ε_P of that plane, the secondary's within ε_S
   // of its model. Then filter 1 runs only inside those windows.
-  const w = p ? secondaryPlaneWindows(s, p, dKm + s.epsKm + p.epsKm + NORMAL_INTERP_KM, start, end) : null;
+  const thr1b = dKm + s.epsKm + (p?.epsKm ?? 0) + NORMAL_INTERP_KM;
+  const w = p ? secondaryPlaneWindows(s, p, thr1b, start, end, shared?.blocks, shared?.normals) : null;
   let planeRegions: Regions;
   if (!s.hasPlane) planeRegions = w ?? [start, end];
   else if (w) {
@@ -80,7 +72,7 @@ export function candidateRegions(
       if (g - gdot * ((b - a) / 2000) > thrP) continue;
       planeWindows(grid, s, dKm, a as Instant, b as Instant, stats, planeRegions);
     }
-    planeRegions = intersect(planeRegions, w);
+    planeRegions = intersectRegions(planeRegions, w);
   } else planeRegions = planeWindows(grid, s, dKm, start, end, stats);
   const out: Regions = [];
   const pos = POS;
@@ -200,19 +192,4 @@ function firstAtOrAbove(u: Float64Array, base: number, n: number, x: number): nu
     else lo = mid + 1;
   }
   return lo;
-}
-
-/** Intersection of two sorted disjoint flat region lists. */
-function intersect(x: Regions, w: Windows): Regions {
-  const out: Regions = [];
-  let i = 0, k = 0;
-  while (i < x.length && k < w.length) {
-    const a = x[i]!, b = x[i + 1]!;
-    const c = w[k]!, d = w[k + 1]!;
-    const lo = Math.max(a, c), hi = Math.min(b, d);
-    if (lo <= hi) out.push(lo, hi);
-    if (b < d) i += 2;
-    else k += 2;
-  }
-  return out;
 }

@@ -1,5 +1,6 @@
 import type { Instant } from '../time/instant.js';
 import type { OrbitModel } from './orbitModel.js';
+import { pushRegion, type Regions } from './regions.js';
 
 /**
  * Time windows in which the secondary's model position can be within `thrKm` of the primary's
@@ -19,31 +20,69 @@ const CURVE_PAD_RAD = 1e-4;
 /** Padding of each time window (ms): M(t) non-linearity, e drift and rounding. */
 const TIME_PAD_MS = 1000;
 
-export type Windows = number[]; // flat [a0, b0, a1, b1, ...], sorted, disjoint
+/** Windows are time regions (regions.ts). */
+export type Windows = Regions;
+
+/**
+ * What one secondary contributes to every pair it is in, computed once per secondary and shared
+ * by all primaries (fleet screening visits a secondary once per primary): per block boundary
+ * the model's mean elements turned into ρ_min, e, ω, M, the node/inclination trigonometry and ν;
+ * per block centre e, ω, M and dM/dt. Built for the whole window; a pair whose window ends
+ * earlier (an object that decays) computes its own.
+ */
+export interface SecondaryBlocks {
+  readonly start: number;
+  readonly end: number;
+  readonly count: number; // blocks
+  /** per boundary b = 0 … count: a(1−e), e, ω, cos Ω, sin Ω, cos i, sin i, ν */
+  readonly bnd: Float64Array;
+  /** per block: e (clamped), ω, M, dM/dt at its centre */
+  readonly ctr: Float64Array;
+}
+const BND = 8, CTR = 4;
+
+const blockEnd = (start: number, end: number, b: number): number => Math.min(end, start + b * BLOCK_MS);
+
+export function secondaryBlocks(s: OrbitModel, start: number, end: number, reuse?: SecondaryBlocks): SecondaryBlocks | null {
+  if (!s.meanElementsInto) return null;
+  const count = Math.max(0, Math.ceil((end - start) / BLOCK_MS));
+  const bnd = reuse && reuse.bnd.length >= (count + 1) * BND ? reuse.bnd : new Float64Array((count + 1) * BND);
+  const ctr = reuse && reuse.ctr.length >= count * CTR ? reuse.ctr : new Float64Array(Math.max(1, count) * CTR);
+  const me = ME0;
+  for (let b = 0; b <= count; b++) {
+    s.meanElementsInto(blockEnd(start, end, b) as Instant, me);
+    const o = b * BND;
+    bnd[o] = me[0]! * (1 - me[1]!);
+    bnd[o + 1] = me[1]!;
+    bnd[o + 2] = me[4]!;
+    bnd[o + 3] = Math.cos(me[3]!);
+    bnd[o + 4] = Math.sin(me[3]!);
+    bnd[o + 5] = Math.cos(me[2]!);
+    bnd[o + 6] = Math.sin(me[2]!);
+    bnd[o + 7] = trueFromMean(me[5]!, me[1]!);
+  }
+  for (let b = 0; b < count; b++) {
+    const t0 = blockEnd(start, end, b), t1 = blockEnd(start, end, b + 1);
+    s.meanElementsInto((0.5 * (t0 + t1)) as Instant, me);
+    const o = b * CTR;
+    ctr[o] = Math.min(Math.max(me[1]!, 0), 0.999);
+    ctr[o + 1] = me[4]!;
+    ctr[o + 2] = me[5]!;
+    ctr[o + 3] = me[6]!;
+  }
+  return { start, end, count, bnd, ctr };
+}
+
+/** The primary's mean-plane normal at every block boundary of [start, end] (3 per boundary). */
+export function primaryBlockNormals(p: OrbitModel, start: number, end: number): Float64Array {
+  const count = Math.max(0, Math.ceil((end - start) / BLOCK_MS));
+  const out = new Float64Array((count + 1) * 3);
+  for (let b = 0; b <= count; b++) p.tabledNormalInto(blockEnd(start, end, b) as Instant, out, b * 3);
+  return out;
+}
 
 // Scratch buffers (single-threaded per worker; no allocation per call).
-const ME0 = new Float64Array(7), ME1 = new Float64Array(7), MC = new Float64Array(7), NP = new Float64Array(3);
-
-// θ and A of n_P against the secondary's node basis at t, from its elements in `me`
-// (written to gTheta / gA: no allocation in this hot loop).
-let gTheta = 0, gA = 0;
-function geom(p: OrbitModel, t: number, me: Float64Array): void {
-  p.tabledNormalInto(t as Instant, NP, 0);
-  const inc = me[2]!, node = me[3]!;
-  const cO = Math.cos(node), sO = Math.sin(node), ci = Math.cos(inc), si = Math.sin(inc);
-  const a = NP[0]! * cO + NP[1]! * sO;
-  const b = -NP[0]! * sO * ci + NP[1]! * cO * ci + NP[2]! * si;
-  gTheta = Math.atan2(b, a);
-  gA = Math.hypot(a, b);
-}
-
-function pushWindow(out: Windows, a: number, b: number): void {
-  if (b < a) return;
-  const n = out.length;
-  if (n > 0 && out[n - 1]! >= a) {
-    if (b > out[n - 1]!) out[n - 1] = b;
-  } else out.push(a, b);
-}
+const ME0 = new Float64Array(7);
 
 const TWO_PI = 2 * Math.PI;
 
@@ -79,66 +118,73 @@ function trueFromMean(M: number, e: number): number {
   return nu + k * TWO_PI;
 }
 
+/**
+ * The windows of one pair. `blocks` and `normals` are the secondary's and the primary's shared
+ * tables (secondaryBlocks, primaryBlockNormals) for exactly this [start, end]; built here when
+ * not given.
+ */
 export function secondaryPlaneWindows(
   s: OrbitModel,
   p: OrbitModel,
   thrKm: number,
   start: Instant,
   end: Instant,
+  blocks?: SecondaryBlocks | null,
+  normals?: Float64Array,
 ): Windows | null {
   if (!s.meanElementsInto || !p.hasPlane) return null;
+  const sb = blocks && blocks.start === start && blocks.end === end ? blocks : secondaryBlocks(s, start, end)!;
+  const nrm = normals ?? primaryBlockNormals(p, start, end);
+  const { bnd, ctr, count } = sb;
   const out: Windows = [];
-  const me0 = ME0, me1 = ME1, mc = MC;
-  let t0 = start as number;
-  s.meanElementsInto(t0 as Instant, me0);
-  geom(p, t0, me0);
+  // θ and A of n_P against the secondary's node basis at boundary b.
+  let gTheta = 0, gA = 0;
+  const geom = (b: number): void => {
+    const o = b * BND, n = b * 3;
+    const cO = bnd[o + 3]!, sO = bnd[o + 4]!, ci = bnd[o + 5]!, si = bnd[o + 6]!;
+    const x = nrm[n]! * cO + nrm[n + 1]! * sO;
+    const y = -nrm[n]! * sO * ci + nrm[n + 1]! * cO * ci + nrm[n + 2]! * si;
+    gTheta = Math.atan2(y, x);
+    gA = Math.hypot(x, y);
+  };
+  geom(0);
   let th0 = gTheta, A0 = gA;
-  let nuStart = Number.NaN; // ν at t0, carried over from the previous block's end
-  while (t0 < end) {
-    const t1 = Math.min(end, t0 + BLOCK_MS);
-    s.meanElementsInto(t1 as Instant, me1);
-    geom(p, t1, me1);
+  for (let blk = 0; blk < count; blk++) {
+    const t0 = blockEnd(start, end, blk), t1 = blockEnd(start, end, blk + 1);
+    const o0 = blk * BND, o1 = o0 + BND, oc = blk * CTR;
+    geom(blk + 1);
     let th1 = gTheta;
     const A1 = gA;
     th1 += TWO_PI * Math.round((th0 - th1) / TWO_PI);
     const tc = 0.5 * (t0 + t1);
-    s.meanElementsInto(tc as Instant, mc);
-    const e = Math.min(Math.max(mc[1]!, 0), 0.999);
-    const rhoMin = Math.min(me0[0]! * (1 - me0[1]!), me1[0]! * (1 - me1[1]!)) - s.epsKm;
+    const e = ctr[oc]!;
+    const rhoMin = Math.min(bnd[o0]!, bnd[o1]!) - s.epsKm;
     const A = Math.min(A0, A1) - CURVE_PAD_RAD;
     const c = thrKm / (rhoMin * A);
     if (!(c < 1) || !(A > 0) || !(rhoMin > 0)) {
-      pushWindow(out, t0 - TIME_PAD_MS, t1 + TIME_PAD_MS);
-      nuStart = Number.NaN;
+      pushRegion(out, t0 - TIME_PAD_MS, t1 + TIME_PAD_MS);
     } else {
       const beta = Math.asin(c);
       const thLo = Math.min(th0, th1) - CURVE_PAD_RAD, thHi = Math.max(th0, th1) + CURVE_PAD_RAD;
-      const halfBlock = (t1 - t0) / 2;
       // ω drifts secularly (J2): its range over the block is that of its end values, padded.
-      const wLo = Math.min(me0[4]!, me1[4]!, mc[4]!) - CURVE_PAD_RAD;
-      const wHi = Math.max(me0[4]!, me1[4]!, mc[4]!) + CURVE_PAD_RAD;
-      const Mc = mc[5]!, Mdot = mc[6]!;
-      // u range of the block (ω + ν at both ends, ν from M(t) through Kepler's equation).
-      // u range of the block from the model's own M and e at both ends (ν at the start is the
-      // previous block's end value: the same M and e), padded for the series' remainder.
-      const nu0 = Number.isNaN(nuStart) ? trueFromMean(me0[5]!, me0[1]!) : nuStart;
-      const nu1 = trueFromMean(me1[5]!, me1[1]!);
-      nuStart = nu1;
-      const uLo = wLo + nu0 - CURVE_PAD_RAD, uHi = wHi + nu1 + CURVE_PAD_RAD;
+      const wc = ctr[oc + 1]!;
+      const wLo = Math.min(bnd[o0 + 2]!, bnd[o1 + 2]!, wc) - CURVE_PAD_RAD;
+      const wHi = Math.max(bnd[o0 + 2]!, bnd[o1 + 2]!, wc) + CURVE_PAD_RAD;
+      const Mc = ctr[oc + 2]!, Mdot = ctr[oc + 3]!;
+      // u range of the block from the model's own M and e at both ends (ν through Kepler's
+      // equation), padded for the series' remainder.
+      const uLo = wLo + bnd[o0 + 7]! - CURVE_PAD_RAD, uHi = wHi + bnd[o1 + 7]! + CURVE_PAD_RAD;
       const kFirst = Math.ceil((uLo - beta - thHi - Math.PI / 2) / Math.PI);
       const kLast = Math.floor((uHi + beta - thLo - Math.PI / 2) / Math.PI);
       for (let k = kFirst; k <= kLast; k++) {
         const u1 = thLo + Math.PI / 2 + k * Math.PI - beta, u2 = thHi + Math.PI / 2 + k * Math.PI + beta;
         const Ma = meanFromTrue(u1 - wHi, e), Mb = meanFromTrue(u2 - wLo, e);
         const ta = tc + (Ma - Mc) / Mdot, tb = tc + (Mb - Mc) / Mdot;
-        pushWindow(out, Math.max(t0, ta) - TIME_PAD_MS, Math.min(t1, tb) + TIME_PAD_MS);
+        pushRegion(out, Math.max(t0, ta) - TIME_PAD_MS, Math.min(t1, tb) + TIME_PAD_MS);
       }
     }
-    t0 = t1;
-    for (let j = 0; j < 7; j++) me0[j] = me1[j]!;
     th0 = th1;
     A0 = A1;
-
   }
   return out;
 }

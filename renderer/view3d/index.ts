@@ -10,7 +10,7 @@
  */
 import { DECISION_AID_NOTE } from '../../core/risk/decisionAid.js';
 import type { EncounterScene } from '../../core/scene/encounterScene.js';
-import { EarthPanel } from './earthPanel.js';
+import { DEFAULT_CATALOGUE_SHARE_WHILE_DRAGGING, EarthPanel } from './earthPanel.js';
 import type { PanelName } from './panel.js';
 import { projectPx, RtnPanel, type EllipsoidKind } from './rtnPanel.js';
 import { el, formatDistanceM, formatFromTca, LABEL_INK, PRIMARY_COLOUR, SPACE_BACKGROUND, tierColour, tierGlyph, tierLabel } from './style.js';
@@ -20,6 +20,8 @@ export interface EncounterViewOptions {
   readonly sigmaScale?: number;
   /** drop to half resolution while the user drags (default true) */
   readonly halfResolutionWhileDragging?: boolean;
+  /** share of the catalogue drawn while dragging (default DEFAULT_CATALOGUE_SHARE_WHILE_DRAGGING, 0.25; 1 = all) */
+  readonly catalogueShareWhileDragging?: number;
   /** starting time, s from TCA (default 0) */
   readonly initialTimeS?: number;
   /** called after each frame with the time spent in renderer.render (ms): benchmarks */
@@ -52,7 +54,8 @@ export function mountEncounterView(host: HTMLElement, scene: EncounterScene, opt
   root.append(panels);
   host.append(root);
 
-  const earth = new EarthPanel(panels, scene, { halfResolutionWhileDragging: half, onFrame: opts.onFrame });
+  const share = opts.catalogueShareWhileDragging ?? DEFAULT_CATALOGUE_SHARE_WHILE_DRAGGING;
+  const earth = new EarthPanel(panels, scene, { halfResolutionWhileDragging: half, onFrame: opts.onFrame, catalogueShareWhileDragging: share });
   const rtn = new RtnPanel(panels, scene, { halfResolutionWhileDragging: half, onFrame: opts.onFrame, sigmaScale: k });
 
   const sColour = tierColour(scene.tier);
@@ -76,7 +79,8 @@ export function mountEncounterView(host: HTMLElement, scene: EncounterScene, opt
     'Around the Earth (TEME), one revolution each',
     ['●', PRIMARY_COLOUR, `${scene.primary.id} primary`],
     [tierGlyph(scene.tier), sColour, `${scene.secondary.id} secondary · ${tierLabel(scene.tier)}`],
-    `catalogue at TCA: ${scene.catalogue.count.toLocaleString('en-GB')} objects`,
+    `catalogue at TCA: ${scene.catalogue.count.toLocaleString('en-GB')} objects` +
+      (share < 1 ? ` (${Math.round(share * 100)} % shown while turning)` : ''),
   ]);
   const hbrNote = scene.hardBodyRadiusIsDefault ? ' (default)' : '';
   caption(rtn.panel.root, [

@@ -20,6 +20,8 @@ export interface PanelOptions {
   readonly onFrame?: ((panel: PanelName, renderMs: number, atMs: number) => void) | undefined;
   /** called before each frame (labels, clip planes that follow the camera) */
   readonly beforeRender?: () => void;
+  /** called when a drag starts (true) and ends (false), before the next frame */
+  readonly onDrag?: (dragging: boolean) => void;
 }
 
 /** Share of the device pixel ratio used while dragging (0.5 = a quarter of the pixels). */
@@ -92,11 +94,13 @@ export class Panel {
 
   private readonly onStart = (): void => {
     this.dragging = true;
+    this.opts.onDrag?.(true);
     if (this.opts.halfResolutionWhileDragging) this.setResolution(this.dpr * DRAG_RESOLUTION_FACTOR);
   };
 
   private readonly onEnd = (): void => {
     this.dragging = false;
+    this.opts.onDrag?.(false);
     if (this.opts.halfResolutionWhileDragging) this.setResolution(this.dpr);
     this.requestRender();
   };

@@ -53,7 +53,13 @@ export async function exportFixture(path = ':memory:'): Promise<ExportFixture> {
   const sec = { ...elementSet(SECONDARY, T0, secondaryOrbit, T0), name: 'DEBRIS B0001', intlDesignator: '2019-950C' };
   storeElementSets(db, { path: 'secondary.tle', sha256: 's'.repeat(64), format: 'TLE' }, [sec], []);
   setHardBodyRadius(db, [PRIMARY], 2.5);
-  const r = await screenAndStore(db, {
+  const r = await screenAgain(db);
+  return { db, run: r.run, events: r.events };
+}
+
+/** The fixture's screening (again): a later run finds the same conjunction, one series. */
+export function screenAgain(db: KeepclearDb) {
+  return screenAndStore(db, {
     settings: {
       start: (T0 - 600_000) as Instant,
       end: (T0 + 600_000) as Instant,
@@ -62,5 +68,4 @@ export async function exportFixture(path = ':memory:'): Promise<ExportFixture> {
     },
     workers: 0,
   });
-  return { db, run: r.run, events: r.events };
 }

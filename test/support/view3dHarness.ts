@@ -53,7 +53,7 @@ export async function openView(
   url: string,
   scene: EncounterScene,
   size = { width: 1200, height: 640 },
-  opts: { halfResolutionWhileDragging?: boolean } = {},
+  opts: { halfResolutionWhileDragging?: boolean; catalogueShareWhileDragging?: number } = {},
 ): Promise<{ page: Page; errors: string[] }> {
   const page = await browser.newPage({ viewport: { width: size.width, height: size.height + 20 } });
   const errors: string[] = [];

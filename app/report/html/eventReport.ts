@@ -1,4 +1,5 @@
 import { encounterPlaneSpec } from '../../../core/plots/encounterPlane.js';
+import { planTradeSpec } from '../../../core/plots/planTrade.js';
 import { rtnSeriesSpec, rtnSingleSpec } from '../../../core/plots/rtn.js';
 import { seriesTrendSpec } from '../../../core/plots/seriesTrend.js';
 import type { EventReportModel, PlanModel } from '../model.js';
@@ -12,7 +13,7 @@ const table = (kind: string, head: string[], rows: string[][], numeric: number[]
     .map((r) => `<tr>${r.map((c, i) => `<td${numeric.includes(i) ? ' class="num"' : ''}>${c}</td>`).join('')}</tr>`)
     .join('\n')}</tbody></table>`;
 
-function planSection(p: PlanModel): string {
+async function planSection(p: PlanModel, eventId: string): Promise<string> {
   const target = [p.target.missKm !== undefined ? `miss ≥ ${p.target.missKm} km` : '', p.target.pc !== undefined ? `Pc ≤ ${p.target.pc.toExponential(0)}` : '']
     .filter(Boolean)
     .join(' and ');
@@ -35,14 +36,17 @@ function planSection(p: PlanModel): string {
   const trade = p.trade.length
     ? table(
         'plan-trade',
-        ['Lead time s', 'Δv m/s', 'Miss after km', 'Pc after'],
-        p.trade.map((t) => [num(t.leadTimeS, 0), num(t.deltaVMs, 4), num(t.achievedMissKm, 3), esc(formatPc(t.achievedPc ?? null))]),
-        [0, 1, 2, 3],
+        ['Lead time s', 'Direction', 'Δv m/s', 'Miss after km', 'Pc after'],
+        p.trade.map((t) => [num(t.leadTimeS, 0), esc(t.direction ?? '—'), num(t.deltaVMs, 4), num(t.achievedMissKm, 3), esc(formatPc(t.achievedPc ?? null))]),
+        [0, 2, 3, 4],
       )
     : '<p class="none">No trade over lead times was given.</p>';
   const v = p.verification;
+  const numerical = v?.fullyNumerical
+    ? `<p data-plan="fully-numerical">Fully numerical, for comparison (the integrated manoeuvred primary itself against the secondary): miss ${num(v.fullyNumerical.missKm, 3)} km, Pc ${esc(formatPc(v.fullyNumerical.pc))}.</p>`
+    : '';
   const verified = v
-    ? `<p data-plan="verified">Verified by ${esc(v.method)}: miss ${num(v.missKm, 3)} km, Pc ${esc(formatPc(v.pc))}.</p>${
+    ? `<p data-plan="verified">Verified by ${esc(v.method)}: miss ${num(v.missKm, 3)} km, Pc ${esc(formatPc(v.pc))}.</p>${numerical}${
         v.notes?.length ? `<ul class="warnings">${v.notes.map((n) => `<li>${esc(n)}</li>`).join('')}</ul>` : ''
       }`
     : '<p class="none" data-plan="verified">The proposal has not been verified by numerical propagation.</p>';
@@ -54,12 +58,28 @@ function planSection(p: PlanModel): string {
         [2, 3],
       )
     : '<p class="none">Re-screening the manoeuvred trajectory found no new approach.</p>';
+  const rows = p.tradeByDirection && p.tradeByDirection.length > 0 ? p.tradeByDirection : p.trade.map((t) => ({ leadTimeS: t.leadTimeS, direction: t.direction ?? 'chosen direction', deltaVMs: t.deltaVMs }));
+  const plot = p.periodS && rows.length > 1
+    ? await plotFigure(
+        'plan-trade',
+        planTradeSpec({ eventId, periodS: p.periodS, rows, chosen: { leadTimeS: q.leadTimeS, deltaVMs: q.deltaVMs } }),
+        'Δv needed against how long before TCA the burn is made.',
+      )
+    : '';
+  const o = p.original;
+  const before = o ? `<p>Without a burn: miss ${num(o.missKm, 3)} km, Pc ${esc(formatPc(o.pc))}.</p>` : '';
+  const rs = p.rescreen;
+  const rescreen = rs
+    ? `<p data-plan="rescreen">The manoeuvred trajectory was screened again against ${num(rs.objects, 0)} objects from the burn to ${esc(shortIso(rs.end))}: ${num(rs.approaches, 0)} approach(es) in the screening volume, ${num(p.newApproaches.length, 0)} of them new.</p>`
+    : '';
   return `<section data-section="plan"><h2>Manoeuvre plan</h2>
-<p>Target: ${esc(target || 'not stated')}.</p>
+<p>Target: ${esc(target || 'not stated')}.${p.createdAt ? ` Planned ${esc(shortIso(p.createdAt))}.` : ''}</p>
+<p class="caution" data-plan="caution">A proposal to check, not an instruction: the operator's own flight dynamics, the screening provider's screening of the planned trajectory and local rules decide.</p>
+${before}
 <h3>Chosen burn</h3>${chosen}
 <h3>Verified result</h3>${verified}
-<h3>Trade over lead times</h3>${trade}
-<h3>New approaches after the burn</h3>${fresh}</section>`;
+<h3>Trade over lead times</h3>${plot}${trade}
+<h3>New approaches after the burn</h3>${rescreen}${fresh}</section>`;
 }
 
 /**
@@ -77,12 +97,31 @@ export async function renderEventReportHtml(m: EventReportModel): Promise<string
     : `<p class="none" data-plot-missing="encounter-plane">${esc(m.planeNote ?? 'No encounter plane.')}</p>`;
   const rtn = await plotFigure('rtn', rtnSingleSpec({ eventId: e.id, rtnKm: e.rtnKm }), 'R radial, T in-track, N cross-track, in the primary\'s frame at TCA.');
   const s = m.series;
+  const seriesEvents = s?.events?.length
+    ? table(
+        'series-events',
+        ['Event', 'Source', 'Data created (UTC)', 'Time to TCA h', 'TCA (UTC)', 'Miss km', 'Pc', 'Tier'],
+        s.events.map((x) => [
+          `${x.current ? '<b>' : ''}${esc(x.id)}${x.current ? '</b> (this report)' : ''}`,
+          esc(x.sourceText),
+          esc(shortIso(x.dataAt)),
+          num(x.hoursToTca, 1),
+          esc(shortIso(x.tca)),
+          num(x.missKm, 3),
+          esc(formatPc(x.pc)),
+          tierBadge(x.tier),
+        ]),
+        [3, 5, 6],
+      )
+    : '';
   const series = s
     ? `<section data-section="series"><h2>Series ${esc(s.id)}: ${esc(s.state)}</h2>
+${s.stateMeaning ? `<p class="sub">${esc(s.stateMeaning)}.${s.changeText ? ` Since the first sighting: ${esc(s.changeText)}.` : ''}</p>` : ''}
 ${s.points.length
   ? `${await plotFigure('series-trend', seriesTrendSpec({ seriesId: s.id, points: s.points, pcPlan: m.thresholds.pcPlan, pcMonitor: m.thresholds.pcMonitor }), 'Each point is one event of the series, placed at the time its data was created.')}
 ${await plotFigure('rtn-series', rtnSeriesSpec(s.id, s.points), 'How the predicted geometry settled as TCA came near.')}`
   : '<p class="none">The series has no points yet.</p>'}
+${seriesEvents}
 </section>`
     : '';
   const facts = table(
@@ -130,7 +169,7 @@ ${warnings}
 ${messages}
 </section>
 ${series}
-${m.plan ? planSection(m.plan) : ''}
+${m.plan ? await planSection(m.plan, e.id) : ''}
 ${m.run ? `<section data-section="run"><h2>Screening run ${esc(m.run.id)}</h2>${runMeta(m.run, m.generatedAt)}</section>` : ''}`;
   const footer = `Keepclear event report · ${esc(e.id)} · generated ${esc(shortIso(m.generatedAt))} · ${esc(m.caution)}`;
   return pageHtml(m.title, body, footer);

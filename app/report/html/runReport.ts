@@ -1,8 +1,8 @@
 import { weekGlanceSpec } from '../../../core/plots/weekGlance.js';
 import { TIER_ORDER } from '../../../core/risk/tiers.js';
-import type { EventRowModel, RunReportModel } from '../model.js';
+import type { EventRowModel, RunChangeModel, RunReportModel } from '../model.js';
 import { catalogueBanner, cautionBox, eventTable, runMeta, tierCards } from './common.js';
-import { esc, shortIso } from './format.js';
+import { esc, formatPc, num, shortIso, tierBadge } from './format.js';
 import { pageHtml } from './page.js';
 import { plotFigure } from './plots.js';
 
@@ -17,6 +17,36 @@ export function needingAttention(events: readonly EventRowModel[]): EventRowMode
   return events
     .filter((e) => e.tier !== null && e.tier !== lowest)
     .sort((a, b) => urgency(a) - urgency(b) || (b.pc ?? -1) - (a.pc ?? -1) || a.tca.localeCompare(b.tca));
+}
+
+const CHANGE_TEXT: Readonly<Record<RunChangeModel['change'], string>> = {
+  new: 'New',
+  updated: 'Updated',
+  'no-longer-predicted': 'No longer predicted',
+};
+
+/**
+ * What changed with this run, by series, against the data before it (earlier runs and received
+ * messages): new conjunctions, conjunctions seen again (miss and Pc before → now), and
+ * conjunctions this run covered but no longer found.
+ */
+export function changesSection(changes: readonly RunChangeModel[] | null | undefined): string {
+  if (changes === undefined || changes === null) return '';
+  const count = (c: RunChangeModel['change']) => changes.filter((x) => x.change === c).length;
+  const summary = `${count('new')} new · ${count('updated')} updated · ${count('no-longer-predicted')} no longer predicted`;
+  const arrow = (before: string | null, now: string) => (before === null ? now : `${before} → ${now}`);
+  const rows = changes.map(
+    (c) => `<tr data-change="${esc(c.change)}" data-series="${esc(c.seriesId)}"><td>${esc(CHANGE_TEXT[c.change])}</td><td class="nw">${esc(c.seriesId)}</td><td>${esc(c.primary)} × ${esc(c.secondary)}</td><td class="nw">${esc(c.eventId)}</td><td class="nw">${esc(shortIso(c.tca))}</td>
+<td class="num">${esc(arrow(c.previousMissKm === null ? null : num(c.previousMissKm, 3), num(c.missKm, 3)))}</td><td class="num">${esc(arrow(c.previousMissKm === null ? null : formatPc(c.previousPc), formatPc(c.pc)))}</td><td>${tierBadge(c.tier)}</td><td>${esc(c.stateNow ?? '—')}</td></tr>`,
+  );
+  const table = changes.length
+    ? `<table data-table="changes"><thead><tr><th>Change</th><th>Series</th><th>Pair</th><th>Event</th><th>TCA (UTC)</th><th>Miss km (before → now)</th><th>Pc (before → now)</th><th>Tier</th><th>State now</th></tr></thead><tbody>${rows.join('\n')}</tbody></table>`
+    : '<p class="none">Nothing changed: no conjunction is new, seen again or no longer found.</p>';
+  return `<section data-section="changes">
+<h2>What changed since the previous run (${esc(summary)})</h2>
+<p class="sub">By series: the same conjunction across runs and received messages. "No longer predicted": this run covered the TCA for the pair and did not find it; for "no longer predicted" rows the event and numbers are the last sighting before this run.</p>
+${table}
+</section>`;
 }
 
 /** The run report: header, counts per tier, the week at a glance, what needs attention, every event. */
@@ -49,6 +79,7 @@ ${cautionBox(m.caution)}
 <h2>Events by tier (${m.events.length} in all)</h2>
 ${tierCards(m.events, m.thresholds.pcPlan, m.thresholds.pcMonitor)}
 </section>
+${changesSection(m.changes)}
 <section data-section="glance">
 ${glance}
 </section>

@@ -28,8 +28,9 @@ export interface CdmParseResult {
 
 export interface CdmReadOptions {
   /**
-   * A covariance that is not PSD beyond rounding: 'refuse' (default) refuses the message with
-   * CDM_COVARIANCE; 'flag' keeps the message with that object's covariance status 'not-psd' and
+   * A covariance that is not PSD beyond rounding, or whose position block is all zero (judged by
+   * core/risk/covariancePsd.ts): 'refuse' (default) refuses the message with CDM_COVARIANCE;
+   * 'flag' keeps the message with that object's covariance status 'not-psd' or 'zero' and
    * `usable` null, so risk can fall back to another covariance source or maximum Pc.
    */
   readonly badCovariance?: 'refuse' | 'flag';

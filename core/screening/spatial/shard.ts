@@ -4,26 +4,11 @@
  * union of the N shards is the unsharded run. A pair's shard depends only on the two object ids
  * (FNV-1a of each id, combined symmetrically and mixed), not on catalogue order or machine.
  */
-import { KeepclearError } from '../../errors.js';
-
 export interface ShardSpec {
   /** 1-based shard number K */
   readonly index: number;
   /** number of shards N */
   readonly count: number;
-}
-
-/** Largest N accepted: far beyond any batch engine's array size of practical use. */
-export const MAX_SHARDS = 10_000;
-
-/** Parses "K/N" (1 ≤ K ≤ N ≤ MAX_SHARDS). */
-export function parseShard(text: string): ShardSpec {
-  const m = /^\s*(\d+)\s*\/\s*(\d+)\s*$/.exec(text);
-  const k = m ? Number(m[1]) : NaN, n = m ? Number(m[2]) : NaN;
-  if (!m || !(n >= 1 && n <= MAX_SHARDS) || !(k >= 1 && k <= n)) {
-    throw new KeepclearError('BAD_ARGUMENT', `--shard must be K/N with 1 ≤ K ≤ N ≤ ${MAX_SHARDS} (e.g. 2/7), got "${text}"`);
-  }
-  return { index: k, count: n };
 }
 
 export const shardText = (s: ShardSpec): string => `${s.index}/${s.count}`;
