@@ -115,7 +115,18 @@ function wholeCommand(sets: readonly ElementSet[], start: Instant, days: number)
 }
 
 /** One all-vs-all case: engine, whole command, naive grid, printed. */
-export async function benchAllVsAll(label: string, sets: readonly ElementSet[], start: Instant, rate: number, workers: number, naive: NaiveGrid): Promise<void> {
+/** A row of the bench summary table. */
+export interface AllVsAllRow {
+  name: string;
+  wallS: number;
+  cpuS: number | null;
+  targetS: number;
+  peakRssMiB: number | null;
+  events: number | null;
+  naiveS: number | null;
+}
+
+export async function benchAllVsAll(label: string, sets: readonly ElementSet[], start: Instant, rate: number, workers: number, naive: NaiveGrid): Promise<AllVsAllRow[]> {
   const days = 1;
   const e = await engine(sets, start, days, workers);
   const naiveS = naiveSeconds(naive, sets.length, days);
@@ -131,12 +142,17 @@ export async function benchAllVsAll(label: string, sets: readonly ElementSet[], 
       `measured ${(naive.propagationS * 1e6).toFixed(2)} µs per SGP4 step, ${(naive.pairS * 1e9).toFixed(2)} ns per pair-step), ` +
       `${(naiveS / workers / e.wallS).toFixed(0)}× the engine; raw SGP4 ${(rate / 1e6).toFixed(2)} M/s on one core`,
   );
+  const rows: AllVsAllRow[] = [
+    { name: `${label}: engine`, wallS: e.wallS, cpuS: null, targetS: TARGET_S, peakRssMiB: e.peak / 2 ** 20, events: e.r.encounters.length, naiveS },
+  ];
   const w = wholeCommand(sets, start, days);
   if ('skipped' in w) console.log(`  whole command: skipped (${w.skipped})`);
   else {
+    rows.push({ name: `${label}: keepclear screen --all`, wallS: w.scr.wallS, cpuS: null, targetS: TARGET_S, peakRssMiB: w.scr.peakBytes / 2 ** 20, events: w.events, naiveS });
     console.log(
       `  whole command: keepclear screen --all --days 1 ${w.scr.wallS.toFixed(1)} s wall, peak ${mib(w.scr.peakBytes)}, ${w.events} events ` +
         `(import of the catalogue before it, not counted: ${w.imp.wallS.toFixed(1)} s, peak ${mib(w.imp.peakBytes)})`,
     );
   }
+  return rows;
 }

@@ -139,10 +139,10 @@ async function main(): Promise<void> {
     // it takes minutes) does the same on a 100,000-object catalogue of the same generator.
     const workers = availableParallelism();
     const naive = measureNaiveGrid(sets, BENCH_START);
-    if (want('all')) await benchAllVsAll(`all vs all, ${sets.length} objects, 1 day, 5 km`, sets, BENCH_START, rate, workers, naive);
+    if (want('all')) rows.push(...(await benchAllVsAll(`all vs all, ${sets.length} objects, 1 day, 5 km`, sets, BENCH_START, rate, workers, naive)));
     if (cases.includes('all100k')) {
       const big = [...fleet, ...generateCatalog({ size: 100_000, seed: 1, epoch: BENCH_START })];
-      await benchAllVsAll(`all vs all, ${big.length} objects, 1 day, 5 km`, big, BENCH_START, rate, workers, naive);
+      rows.push(...(await benchAllVsAll(`all vs all, ${big.length} objects, 1 day, 5 km`, big, BENCH_START, rate, workers, naive)));
     }
   }
   if (want('memory')) console.log(`bench process peak RSS ${(process.resourceUsage().maxRSS / 1024).toFixed(0)} MiB (target for a command ≤ 1536 MiB: see the table)`);

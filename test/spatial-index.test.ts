@@ -14,7 +14,7 @@ import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import { StraightLineTrajectory } from '../core/propagation/straightLine.js';
 import { BlockTracks } from '../core/screening/spatial/blockTracks.js';
 import { broadPhase, indexCellKm, stepPads } from '../core/screening/spatial/broadPhase.js';
-import { CellGrid } from '../core/screening/spatial/cellGrid.js';
+import { HALF_NEIGHBOUR_ROWS, SortedCells } from '../core/screening/spatial/sortedCells.js';
 import { CandidateList } from '../core/screening/spatial/candidates.js';
 import { samplingPlan } from '../core/screening/spatial/sampling.js';
 import { Rng } from '../core/synthetic/random.js';
@@ -115,7 +115,7 @@ describe('pairs that meet only at the edge of a cell or a time step are candidat
       const cK = indexCellKm(tracks, [0, 1], { start: START, stepMs: STEP_MS, dKm: D });
       const out = new CandidateList();
       const stats = { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0 };
-      broadPhase(tracks, new CellGrid(2), { start: START, stepMs: STEP_MS, dKm: D }, 0, steps, () => true, out, stats, () => false);
+      broadPhase(tracks, new SortedCells(2), { start: START, stepMs: STEP_MS, dKm: D }, 0, steps, () => true, out, stats, () => false);
       const found = [...out.take().k];
       // The step holding the TCA must be a candidate (both steps when the TCA is on their edge).
       const kT = Math.floor((tca - START) / STEP_MS);
@@ -134,7 +134,27 @@ describe('pairs that meet only at the edge of a cell or a time step are candidat
     const far = new StraightLineTrajectory('F', START as Instant, [b!.r0[0], b!.r0[1], b!.r0[2] + 20], b!.v);
     const tracks = new BlockTracks(START, end, [a!, far], [plan, plan], Int32Array.from([0, 1]));
     const out = new CandidateList();
-    broadPhase(tracks, new CellGrid(2), { start: START, stepMs: STEP_MS, dKm: D }, 0, steps, () => true, out, { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0 }, () => false);
+    broadPhase(tracks, new SortedCells(2), { start: START, stepMs: STEP_MS, dKm: D }, 0, steps, () => true, out, { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0 }, () => false);
     expect(out.length).toBe(0);
+  });
+});
+
+describe('neighbour rows of the sorted cells', () => {
+  it('cover exactly the 13 cells of a half neighbourhood, each once', () => {
+    // Key layout of sortedCells.ts: x·2²⁰ + y·2¹⁰ + z. The half neighbourhood: the 26 neighbours
+    // with (dx, dy, dz) lexicographically positive — one of each ± pair.
+    const key = (dx: number, dy: number, dz: number) => dx * (1 << 20) + dy * (1 << 10) + dz;
+    const want: number[] = [];
+    for (let dx = -1; dx <= 1; dx++)
+      for (let dy = -1; dy <= 1; dy++)
+        for (let dz = -1; dz <= 1; dz++) {
+          if (dx === 0 && dy === 0 && dz === 0) continue;
+          if (dx > 0 || (dx === 0 && (dy > 0 || (dy === 0 && dz > 0)))) want.push(key(dx, dy, dz));
+        }
+    const got = HALF_NEIGHBOUR_ROWS.flatMap((r) => Array.from({ length: 2 - r.dzFrom }, (_, m) => r.base + r.dzFrom + m));
+    expect(got.length).toBe(13);
+    expect([...got].sort((a, b) => a - b)).toEqual([...want].sort((a, b) => a - b));
+    // and the opposite of each is not there (each unordered pair of cells once)
+    for (const d of got) expect(got).not.toContain(-d);
   });
 });

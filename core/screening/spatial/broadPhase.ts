@@ -16,14 +16,14 @@
  *
  *   (test 1)  |p_j − p_i|  ≤  D + R_i + R_j,   R_i := |w_i|·Δ/2 + q_i.
  *
- * The cell grid: with cells of side C ≥ D + 2·max R, two objects passing test 1 are in the same
+ * The cells (sortedCells.ts): with cells of side C ≥ D + 2·max R, two objects passing test 1 are in the same
  * or neighbouring cells (a difference ≤ C in every coordinate moves the cell index by ≤ 1).
  * Only pairs of neighbouring cells are tested; pairs passing test 2 become candidates, refined
  * exactly afterwards (refine.ts). Nearly coplanar pairs need nothing special here: they are
  * tested at every step they share a neighbourhood, whatever their geometry.
  */
 import { CandidateList } from './candidates.js';
-import { CellGrid, HALF_NEIGHBOURS } from './cellGrid.js';
+import { HALF_NEIGHBOUR_ROWS, type SortedCells } from './sortedCells.js';
 import type { BlockTracks } from './blockTracks.js';
 
 export interface BroadPhaseStats {
@@ -47,7 +47,7 @@ export interface IndexStepSettings {
  */
 export function broadPhase(
   tracks: BlockTracks,
-  grid: CellGrid,
+  cells: SortedCells,
   s: IndexStepSettings,
   k0: number,
   k1: number,
@@ -65,65 +65,80 @@ export function broadPhase(
   const st = new Float64Array(n * 6);
   const R = new Float64Array(n);
   const D = s.dKm;
-  const nb = new Int32Array(HALF_NEIGHBOURS.length + 1);
-  const offs = Int32Array.from(HALF_NEIGHBOURS.flat());
+  // The step's states gathered in cell order, so pair loops read memory in sequence.
+  const cap = members.length;
+  const gx = new Float64Array(cap), gy = new Float64Array(cap), gz = new Float64Array(cap);
+  const gu = new Float64Array(cap), gv = new Float64Array(cap), gw = new Float64Array(cap);
+  const gR = new Float64Array(cap), gq = new Float64Array(cap);
   let tests = 0;
   for (let k = k0; k < k1; k++) {
     if (cancelled()) return false;
     const t = s.start + (k + 0.5) * s.stepMs;
-    grid.reset(cellKm);
+    cells.reset(cellKm);
     for (let m = 0; m < members.length; m++) {
       const i = members[m]!;
       const o = i * 6;
       tracks.stateInto(i, t, st, o);
       R[i] = Math.sqrt(st[o + 3]! * st[o + 3]! + st[o + 4]! * st[o + 4]! + st[o + 5]! * st[o + 5]!) * half + q[i]!;
-      grid.insert(i, st[o]!, st[o + 1]!, st[o + 2]!);
+      cells.add(i, st[o]!, st[o + 1]!, st[o + 2]!);
+    }
+    cells.build();
+    const sorted = cells.sorted;
+    for (let x = 0; x < members.length; x++) {
+      const o = sorted[x]! * 6;
+      gx[x] = st[o]!; gy[x] = st[o + 1]!; gz[x] = st[o + 2]!;
+      gu[x] = st[o + 3]!; gv[x] = st[o + 4]!; gw[x] = st[o + 5]!;
+      gR[x] = D + R[sorted[x]!]!; gq[x] = q[sorted[x]!]!;
     }
     stats.steps++;
     stats.objectSteps += members.length;
-    const head = grid.head, next = grid.next;
-    for (let u = 0; u < grid.usedCount; u++) {
-      const slot = grid.used[u]!;
-      const cx = grid.usedCx[u]!, cy = grid.usedCy[u]!, cz = grid.usedCz[u]!;
-      // the cell itself first, then its existing half-neighbours
-      let nn = 0;
-      nb[nn++] = slot;
-      for (let h = 0; h < offs.length; h += 3) {
-        const other = grid.find(cx + offs[h]!, cy + offs[h + 1]!, cz + offs[h + 2]!);
-        if (other >= 0) nb[nn++] = other;
-      }
-      if (nn === 1 && next[head[slot]!]! < 0) continue; // a lone object
-      for (let a = head[slot]!; a >= 0; a = next[a]!) {
-        const oa = a * 6;
-        const xa = st[oa]!, ya = st[oa + 1]!, za = st[oa + 2]!;
-        const ua = st[oa + 3]!, va = st[oa + 4]!, wa = st[oa + 5]!;
-        const ra = D + R[a]!, qa = D + q[a]!;
-        for (let c = 0; c < nn; c++) {
-          for (let b = c === 0 ? next[a]! : head[nb[c]!]!; b >= 0; b = next[b]!) {
-            tests++;
-            const ob = b * 6;
-            const dx = st[ob]! - xa, dy = st[ob + 1]! - ya, dz = st[ob + 2]! - za;
-            const l1 = ra + R[b]!;
-            if (dx * dx + dy * dy + dz * dz > l1 * l1) continue;
-            const wx = st[ob + 3]! - ua, wy = st[ob + 4]! - va, wz = st[ob + 5]! - wa;
-            const ww = wx * wx + wy * wy + wz * wz;
-            let tau = ww > 0 ? -(dx * wx + dy * wy + dz * wz) / ww : 0;
-            if (tau > half) tau = half;
-            else if (tau < -half) tau = -half;
-            const ex = dx + wx * tau, ey = dy + wy * tau, ez = dz + wz * tau;
-            const l2 = qa + q[b]!;
-            if (ex * ex + ey * ey + ez * ez > l2 * l2) continue;
-            const i = a < b ? a : b, j = a < b ? b : a;
-            if (!keep(i, j)) continue;
-            stats.candidates++;
-            out.push(i, j, k);
-          }
-        }
+    const nc = cells.cells, keys = cells.cellKeys, at = cells.cellStart;
+    // pairs inside each cell
+    for (let c = 0; c < nc; c++) if (at[c + 1]! - at[c]! > 1) pairsOf(at[c]!, at[c + 1]!, -1, -1, k);
+    // pairs of neighbouring cells: for each row of offsets, one merge walk over the sorted keys
+    for (let h = 0; h < HALF_NEIGHBOUR_ROWS.length; h++) {
+      const row = HALF_NEIGHBOUR_ROWS[h]!;
+      let j = 0;
+      for (let c = 0; c < nc; c++) {
+        const lo = keys[c]! + row.base + row.dzFrom, hi = keys[c]! + row.base + 1;
+        while (j < nc && keys[j]! < lo) j++;
+        if (j === nc) break;
+        for (let m = j; m < nc && keys[m]! <= hi; m++) pairsOf(at[c]!, at[c + 1]!, at[m]!, at[m + 1]!, k);
       }
     }
   }
   stats.pairTests += tests;
   return true;
+
+  /** Tests the pairs of sorted[a0..a1) × sorted[b0..b1), or within sorted[a0..a1) when b0 < 0. */
+  function pairsOf(a0: number, a1: number, b0: number, b1: number, k: number): void {
+    const sorted = cells.sorted;
+    for (let x = a0; x < a1; x++) {
+      const xa = gx[x]!, ya = gy[x]!, za = gz[x]!;
+      const ua = gu[x]!, va = gv[x]!, wa = gw[x]!;
+      const ra = gR[x]!, qa = D + gq[x]!;
+      const from = b0 < 0 ? x + 1 : b0, to = b0 < 0 ? a1 : b1;
+      for (let y = from; y < to; y++) {
+        tests++;
+        const dx = gx[y]! - xa, dy = gy[y]! - ya, dz = gz[y]! - za;
+        const l1 = ra + gR[y]! - D; // D + R_a + R_b
+        if (dx * dx + dy * dy + dz * dz > l1 * l1) continue;
+        const wx = gu[y]! - ua, wy = gv[y]! - va, wz = gw[y]! - wa;
+        const ww = wx * wx + wy * wy + wz * wz;
+        let tau = ww > 0 ? -(dx * wx + dy * wy + dz * wz) / ww : 0;
+        if (tau > half) tau = half;
+        else if (tau < -half) tau = -half;
+        const ex = dx + wx * tau, ey = dy + wy * tau, ez = dz + wz * tau;
+        const l2 = qa + gq[y]!;
+        if (ex * ex + ey * ey + ez * ez > l2 * l2) continue;
+        const a = sorted[x]!, b = sorted[y]!;
+        const i = a < b ? a : b, j = a < b ? b : a;
+        if (!keep(i, j)) continue;
+        stats.candidates++;
+        out.push(i, j, k);
+      }
+    }
+  }
 }
 
 /** q_i = E_i + A_i·Δ²/8 (km) of each member: how far it can leave its linear motion in a step. */

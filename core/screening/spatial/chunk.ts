@@ -16,7 +16,7 @@ import { CTRL_CANCEL, CTRL_DONE, type ChunkResult } from '../chunk.js';
 import { BlockTracks } from './blockTracks.js';
 import { broadPhase, type BroadPhaseStats } from './broadPhase.js';
 import { CandidateList, type Candidates, type PairRegions } from './candidates.js';
-import { CellGrid } from './cellGrid.js';
+import { SortedCells } from './sortedCells.js';
 import { samplingPlan, type SamplingPlan } from './sampling.js';
 import { pairFilter, type ShardSpec } from './shard.js';
 
@@ -79,7 +79,7 @@ export class AllVsAllChunk {
     const { steps } = stepPlan(this.settings);
     const members = Int32Array.from(this.objects.flatMap((_, i) => (this.role[i] === 0 ? [i] : [])));
     const trajectories = this.objects.map((o) => o.trajectory);
-    const grid = new CellGrid(this.objects.length);
+    const cells = new SortedCells(this.objects.length);
     const out = new CandidateList();
     const stats = { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0, sgp4Evaluations: 0 };
     const failed = new Set<number>();
@@ -90,7 +90,7 @@ export class AllVsAllChunk {
       const tracks = new BlockTracks(s.start + k0 * INDEX_STEP_MS, s.start + k1 * INDEX_STEP_MS, trajectories, this.plans, members);
       stats.sgp4Evaluations += tracks.sgp4Evaluations;
       for (const i of members) if (!tracks.ok[i]) failed.add(i);
-      if (!broadPhase(tracks, grid, s, k0, k1, this.keep, out, stats, this.cancelled)) break;
+      if (!broadPhase(tracks, cells, s, k0, k1, this.keep, out, stats, this.cancelled)) break;
       Atomics.add(this.control, CTRL_DONE, progressUnits[n] ?? 0);
     }
     return { candidates: out.take(), stats, failed: [...failed] };
