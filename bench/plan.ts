@@ -27,7 +27,7 @@ const closest = [...scenario.planted].sort((a, b) => a.designedMissKm - b.design
 const pes = scenario.fleet.find((f) => f.objectId === closest.primary)!;
 const ses = scenario.catalog.find((f) => f.objectId === closest.secondary)!;
 const primary = new Sgp4Trajectory(pes), secondary = new Sgp4Trajectory(ses);
-const periodS = 86_400 / pes.meanMotion;
+const periodS = 86_400 / pes.meanMotionRevPerDay;
 const event = closestApproachNear({ primary, secondary, primaryEpoch: pes.epoch, secondaryEpoch: ses.epoch, minPeriodS: periodS }, closest.tca, periodS / 4)!;
 // As an app service would pass it: covariances resolved once (here a fixed RTN covariance, m²).
 const cov = [[40 ** 2, 0, 0], [0, 200 ** 2, 0], [0, 0, 60 ** 2]];

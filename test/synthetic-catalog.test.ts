@@ -12,7 +12,7 @@ const RE = R_EARTH_WGS72 as number;
 
 /** Semi-major axis (km) of a mean motion, Kepler's third law, written out here on purpose. */
 const aOf = (es: ElementSet): number => {
-  const n = (es.meanMotion * 2 * Math.PI) / 86_400;
+  const n = (es.meanMotionRevPerDay * 2 * Math.PI) / 86_400;
   return Math.cbrt(MU_EARTH_WGS72 / (n * n));
 };
 const family = (cat: ElementSet[], prefix: string): ElementSet[] => cat.filter((e) => e.name?.startsWith(prefix));
@@ -47,7 +47,7 @@ describe('synthetic catalogue: shape', () => {
     // 108 ms slack: epochs are floored to whole 108 ms steps (TLE-exact), never past the reference.
     const outside = cat.filter((e) => e.epoch > EPOCH || e.epoch < EPOCH - 3 * MS_PER_DAY - 108);
     expect(outside.map((e) => e.objectId)).toEqual([]);
-    const numeric = ['meanMotion', 'eccentricity', 'inclinationDeg', 'raanDeg', 'argPerigeeDeg', 'meanAnomalyDeg', 'bstar', 'meanMotionDot'] as const;
+    const numeric = ['meanMotionRevPerDay', 'eccentricity', 'inclinationDeg', 'raanDeg', 'argPerigeeDeg', 'meanAnomalyDeg', 'bstar', 'meanMotionDot'] as const;
     const notFinite = cat.filter((e) => numeric.some((k) => !Number.isFinite(e[k])));
     expect(notFinite.map((e) => e.objectId)).toEqual([]);
     // Element-set ages spread over the window rather than sitting at one instant.
@@ -142,7 +142,7 @@ describe('synthetic catalogue: shape', () => {
     for (const e of geo) {
       expect(Math.abs(aOf(e) - 42_164)).toBeLessThan(5);
       expect(e.inclinationDeg).toBeLessThan(0.2);
-      expect(e.meanMotion).toBeCloseTo(1.0027, 3); // rev/day: one sidereal day
+      expect(e.meanMotionRevPerDay).toBeCloseTo(1.0027, 3); // rev/day: one sidereal day
     }
     const median = geo.map(aOf).sort((x, y) => x - y)[geo.length >> 1]!;
     expect(Math.abs(median - 42_164)).toBeLessThan(0.5);
@@ -170,7 +170,7 @@ describe('synthetic catalogue: shape', () => {
     }
     for (const e of family(cat, 'HEO')) {
       expect(Math.abs(e.inclinationDeg - 63.4)).toBeLessThan(1.5);
-      expect(Math.abs(e.meanMotion - 2.0055)).toBeLessThan(0.001); // two revolutions per sidereal day
+      expect(Math.abs(e.meanMotionRevPerDay - 2.0055)).toBeLessThan(0.001); // two revolutions per sidereal day
     }
   });
 

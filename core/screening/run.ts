@@ -104,7 +104,7 @@ export async function runScreening(
   let offset = 0;
   const layout = primaries.map((id) => {
     const es = bySet.get(id);
-    const stepMs = sampledStep.get(id) ?? gridStepMs(es!.meanMotion, es!.eccentricity);
+    const stepMs = sampledStep.get(id) ?? gridStepMs(es!.meanMotionRevPerDay, es!.eccentricity);
     const count = gridPointCount(settings.start, settings.end, stepMs);
     const l = { id, offset, count, stepMs };
     offset += count * 6;
