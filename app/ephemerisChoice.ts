@@ -6,8 +6,13 @@
  *   error naming the file and the first stretch it does not cover;
  * - ephemerides wholly outside the window (last month's, next week's) are not about this
  *   window: the element set is used, and the choice says why (a note), so the run can say it.
+ * Screening looks past the window's end by MODEL_MARGIN_MS (1 h: its filter model and validity
+ * probe, core/screening/validity.ts), so "covers" means [start, end + 1 h]; the message says so
+ * when only that margin is missing.
  */
+export const EPHEMERIS_END_MARGIN_MS = MODEL_MARGIN_MS;
 import { KeepclearError } from '../core/errors.js';
+import { MODEL_MARGIN_MS } from '../core/screening/engine.js';
 import { coverageGap, describeCoverageGap, EphemerisTrajectory } from '../core/propagation/ephemeris.js';
 import { toIso, type Instant } from '../core/time/instant.js';
 import { listEphemerides, loadEphemeris, type EphemerisSummary, type KeepclearDb } from '../db/index.js';
@@ -38,12 +43,18 @@ export function chooseEphemerides(db: KeepclearDb, primaries: readonly string[],
       const oem = loadEphemeris(db, e.id);
       if (!oem) continue;
       const trajectory = new EphemerisTrajectory(oem, id);
-      const gap = coverageGap(trajectory, start, end);
+      const gap = coverageGap(trajectory, start, (end + EPHEMERIS_END_MARGIN_MS) as Instant);
       if (!gap) {
         used.set(id, { summary: e, trajectory });
         break;
       }
-      firstGap ??= { e, text: describeCoverageGap(gap) };
+      const marginOnly = gap.from >= end;
+      firstGap ??= {
+        e,
+        text:
+          describeCoverageGap(gap) +
+          (marginOnly ? ` (screening needs the ephemeris up to ${EPHEMERIS_END_MARGIN_MS / 3_600_000} h past the window end, for its filter and refinement margins)` : ''),
+      };
     }
     if (used.has(id)) continue;
     if (firstGap) {

@@ -45,6 +45,8 @@ export function runToJson(
   const v = s.volume;
   return {
     id: run.id,
+    // when the run's data was created: series order their events by it
+    dataAt: toIso(run.dataAt),
     start: toIso(s.start),
     end: toIso(s.end),
     days: (s.end - s.start) / 86_400_000,

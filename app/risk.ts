@@ -1,12 +1,12 @@
 import { basename } from 'node:path';
 import type { ElementSet } from '../core/elements/elementSet.js';
-import type { EphemerisTrajectory } from '../core/propagation/ephemeris.js';
+import { EphemerisTrajectory } from '../core/propagation/ephemeris.js';
 import type { Matrix } from '../core/math/linalg.js';
 import { assessEncounter, type CovarianceInput } from '../core/risk/assess.js';
 import type { TierThresholds } from '../core/risk/tiers.js';
 import type { Encounter, RiskAssessment } from '../core/events/index.js';
 import type { Instant } from '../core/time/instant.js';
-import { elementSetHistory, getObject, getSetting, type KeepclearDb } from '../db/index.js';
+import { elementSetHistory, getObject, getSetting, loadEphemeris, runEphemerides, type KeepclearDb } from '../db/index.js';
 
 /** Settings key of user-set tier thresholds (JSON: { mitigatePc, attentionPc, ... }). */
 export const TIER_SETTINGS_KEY = 'risk.tierThresholds';
@@ -35,6 +35,25 @@ export class RiskContext {
     this.thresholds = (getSetting(db, TIER_SETTINGS_KEY) as Partial<TierThresholds> | undefined) ?? undefined;
   }
 
+  private readonly fromRuns = new Map<string, EphemerisTrajectory | null>();
+
+  /**
+   * The ephemeris an object was screened from: the one given, else — for a stored event being
+   * assessed again (e.g. when a message joins its series) — the one its run recorded.
+   */
+  private ephemerisOf(id: string, runId: string | undefined): EphemerisTrajectory | null {
+    const given = this.ephemerides.get(id);
+    if (given) return given;
+    if (runId === undefined) return null;
+    const key = `${runId}\u0000${id}`;
+    if (!this.fromRuns.has(key)) {
+      const rec = runEphemerides(this.db, runId).find((r) => r.objectId === id && r.ephemerisId !== null);
+      const oem = rec ? loadEphemeris(this.db, rec.ephemerisId!) : null;
+      this.fromRuns.set(key, oem ? new EphemerisTrajectory(oem, id) : null);
+    }
+    return this.fromRuns.get(key)!;
+  }
+
   private historyOf(id: string): ElementSet[] {
     let h = this.history.get(id);
     if (!h) {
@@ -44,10 +63,17 @@ export class RiskContext {
     return h;
   }
 
-  private input(id: string, epoch: number, tca: Instant, cdmRtnM2: Matrix | null | undefined, doubtful?: string | null): CovarianceInput {
+  private input(
+    id: string,
+    epoch: number,
+    tca: Instant,
+    runId: string | undefined,
+    cdmRtnM2: Matrix | null | undefined,
+    doubtful?: string | null,
+  ): CovarianceInput {
     // History up to the set used in the screening (later sets did not exist for it).
     const h = this.historyOf(id).filter((s) => s.epoch <= epoch + 1);
-    const cov = this.ephemerides.get(id)?.covarianceRtnAt(tca) ?? null;
+    const cov = this.ephemerisOf(id, runId)?.covarianceRtnAt(tca) ?? null;
     const ephemeris = cov ? { rtnM2: cov.rtnM2, source: `oem(${basename(cov.file)})`, note: cov.note } : null;
     return { cdmRtnM2: cdmRtnM2 ?? null, cdmDoubtfulNote: doubtful ?? null, ephemeris, history: h, elements: h[h.length - 1] ?? null };
   }
@@ -64,9 +90,11 @@ export class RiskContext {
       hbrSecondaryM?: number | null;
     },
   ): RiskAssessment {
+    // A stored event (ConjunctionEvent) names its run; a fresh encounter does not.
+    const runId = 'runId' in e && typeof e.runId === 'string' ? e.runId : undefined;
     return assessEncounter(e, {
-      primary: this.input(e.primary, e.primaryEpoch, e.tca, cdm?.primaryRtnM2, cdm?.primaryDoubtful),
-      secondary: this.input(e.secondary, e.secondaryEpoch, e.tca, cdm?.secondaryRtnM2, cdm?.secondaryDoubtful),
+      primary: this.input(e.primary, e.primaryEpoch, e.tca, runId, cdm?.primaryRtnM2, cdm?.primaryDoubtful),
+      secondary: this.input(e.secondary, e.secondaryEpoch, e.tca, runId, cdm?.secondaryRtnM2, cdm?.secondaryDoubtful),
       hbrPrimaryM: cdm?.hbrPrimaryM ?? getObject(this.db, e.primary)?.hardBodyRadiusM ?? null,
       hbrSecondaryM: cdm?.hbrSecondaryM ?? getObject(this.db, e.secondary)?.hardBodyRadiusM ?? null,
       ...(this.thresholds ? { thresholds: this.thresholds } : {}),

@@ -70,6 +70,8 @@ export interface LinkOutcome {
 }
 
 const OPEN_STATES: readonly SeriesState[] = ['new', 'updated', 'no-longer-predicted'];
+/** Around a series' TCA, the window in which a newer run may have looked for it (1 day, ms). */
+const RECHECK_PAD_MS = 86_400_000;
 
 function rowOf(s: Series, st: SeriesStatus): StoredSeries {
   const last = s.members[s.members.length - 1]!;
@@ -106,6 +108,13 @@ function refreshStates(db: KeepclearDb, touched: readonly Series[]): void {
   const gone: string[] = [];
   for (const stored of listSeries(db, { states: OPEN_STATES })) {
     if (seen.has(stored.id)) continue;
+    // Only two things change an untouched series: its TCA falling behind the newest data, or a
+    // screening run newer than its last sighting around its TCA. Skip the rest without reading
+    // their events (RECHECK_PAD_MS exceeds any tolerance: the ¼-period cap is under 1 day).
+    const mayChange =
+      stored.tca < asOf ||
+      coverage.some((r) => r.createdAt > stored.lastDataAt && r.start <= stored.tca + RECHECK_PAD_MS && r.end >= stored.tca - RECHECK_PAD_MS);
+    if (!mayChange) continue;
     const members = eventsOfSeries(db, stored.id);
     if (members.length === 0) {
       gone.push(stored.id); // its events were deleted with their run
@@ -133,14 +142,16 @@ function applyMessageCovariances(db: KeepclearDb, series: readonly Series[]): st
       if (m.source.kind !== 'screening' || !m.event.risk) continue;
       // members are in data order: the last message created at or before the run's data
       const use = messages.filter((c) => c.source.createdAt <= m.source.createdAt).pop() ?? null;
+      // the stored message behind that event (a message run without one contributes nothing)
+      const cdm = use ? (listCdms(db, { eventId: use.event.id })[0] ?? null) : null;
+      const wanted = cdm ? use!.event.id : null;
       const extra = getEventExtra(db, m.event.id) ?? {};
       const usedEventId = typeof extra['cdmEventId'] === 'string' ? extra['cdmEventId'] : null;
-      if ((use?.event.id ?? null) === usedEventId) continue;
+      if (wanted === usedEventId) continue;
       risk ??= new RiskContext(db);
-      const cdm = use ? (listCdms(db, { eventId: use.event.id })[0] ?? null) : null;
       updateEventRisk(db, m.event.id, cdm ? risk.assess(m.event, cdmRiskInputs(cdm, m.event)) : risk.assess(m.event));
       mergeEventExtra(db, m.event.id, {
-        cdmEventId: cdm ? use!.event.id : null,
+        cdmEventId: wanted,
         cdmId: cdm?.id ?? null,
         reportedPc: cdm?.reportedPc ?? null,
       });

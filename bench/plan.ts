@@ -27,7 +27,7 @@ const closest = [...scenario.planted].sort((a, b) => a.designedMissKm - b.design
 const pes = scenario.fleet.find((f) => f.objectId === closest.primary)!;
 const ses = scenario.catalog.find((f) => f.objectId === closest.secondary)!;
 const primary = new Sgp4Trajectory(pes), secondary = new Sgp4Trajectory(ses);
-const periodS = 86_400 / pes.meanMotion;
+const periodS = 86_400 / pes.meanMotionRevPerDay;
 const event = closestApproachNear({ primary, secondary, primaryEpoch: pes.epoch, secondaryEpoch: ses.epoch, minPeriodS: periodS }, closest.tca, periodS / 4)!;
 // As an app service would pass it: covariances resolved once (here a fixed RTN covariance, m²).
 const cov = [[40 ** 2, 0, 0], [0, 200 ** 2, 0], [0, 0, 60 ** 2]];
@@ -71,7 +71,7 @@ if (rescreen) {
   const c = process.cpuUsage(c0);
   console.log(
     `re-screen of the manoeuvred primary (app/plan/rescreen.ts), ${r.objects} objects (${r.radiusPruned} dismissed by radius bands), ` +
-      `${((scenario.end - start) / 86_400_000).toFixed(1)} days, one thread: wall ${(performance.now() - t0).toFixed(0)} ms, ` +
+      `${((scenario.end - start) / 86_400_000).toFixed(1)} days, worker threads (one per core): wall ${(performance.now() - t0).toFixed(0)} ms, ` +
       `CPU ${((c.user + c.system) / 1000).toFixed(0)} ms, ${r.encounters.length} approaches within 5 km`,
   );
 }

@@ -25,7 +25,7 @@ import { benchCatalogueDb, BENCH_START, benchSets, CACHE_DIR, scratchCopy } from
 import { timeCommand } from './command.js';
 import { naiveGridSeconds, sgp4Rate } from './naive.js';
 import { benchDemoWorld } from './demoWorld.js';
-import { benchSeries } from './series.js';
+import { benchSeries, benchSeriesService } from './series.js';
 import { benchUi3d } from './ui3d.js';
 import { benchAllVsAll, measureNaiveGrid } from './allVsAll.js';
 import { generateCatalog } from '../core/synthetic/catalog.js';
@@ -56,7 +56,10 @@ function median(xs: number[]): number {
 }
 
 async function main(): Promise<void> {
-  if (want('series')) benchSeries();
+  if (want('series')) {
+    benchSeries();
+    await benchSeriesService();
+  }
   if (want('world')) benchDemoWorld();
   if (want('ui3d')) await benchUi3d();
   if (cases.length > 0 && cases.every((c) => c === 'series' || c === 'world' || c === 'ui3d')) return;

@@ -16,10 +16,6 @@ export type M = number & { readonly [unitBrand]: 'm' };
  */
 export type KmS = number & { readonly [unitBrand]: 'km/s' };
 export type MS = number & { readonly [unitBrand]: 'm/s' };
-/** @deprecated spelled `KmS` now; kept until every branch has merged, then removed. */
-export type KmPerS = KmS;
-/** @deprecated spelled `MS` now; kept until every branch has merged, then removed. */
-export type MPerS = MS;
 export type Seconds = number & { readonly [unitBrand]: 's' };
 export type Deg = number & { readonly [unitBrand]: 'deg' };
 export type Rad = number & { readonly [unitBrand]: 'rad' };
@@ -36,8 +32,6 @@ export const kmToM = (x: Km): M => (x * 1000) as M;
 export const mToKm = (x: M): Km => (x / 1000) as Km;
 export const kmSToMS = (x: KmS): MS => (x * 1000) as MS;
 export const mSToKmS = (x: MS): KmS => (x / 1000) as KmS;
-/** @deprecated old spellings, kept until every branch has merged (then removed): use kmS, mS, kmSToMS, mSToKmS. */
-export const kmPerS = kmS, mPerS = mS, kmPerSToMPerS = kmSToMS, mPerSToKmPerS = mSToKmS;
 export const degToRad = (x: Deg): Rad => ((x * Math.PI) / 180) as Rad;
 export const radToDeg = (x: Rad): Deg => ((x * 180) / Math.PI) as Deg;
 

@@ -28,7 +28,7 @@ const SET_COLUMNS = `object_id, epoch_ms, name, intl_designator, classification,
 
 type SetRaw = [
   objectId: string, epochMs: number, name: string | null, intl: string | null, classification: string,
-  meanMotion: number, eccentricity: number, inclinationDeg: number, raanDeg: number, argPerigeeDeg: number,
+  meanMotionRevPerDay: number, eccentricity: number, inclinationDeg: number, raanDeg: number, argPerigeeDeg: number,
   meanAnomalyDeg: number, bstar: number, meanMotionDot: number, meanMotionDdot: number,
   elementSetNo: number, revAtEpoch: number, ephemerisType: number,
   sourceFile: string, sourceLine: number, sourceFormat: string,
@@ -40,7 +40,7 @@ const fromRaw = (r: SetRaw): ElementSet => ({
   intlDesignator: r[3],
   classification: r[4],
   epoch: instantFromMs(r[1]),
-  meanMotion: r[5],
+  meanMotionRevPerDay: r[5],
   eccentricity: r[6],
   inclinationDeg: r[7],
   raanDeg: r[8],
@@ -57,7 +57,7 @@ const fromRaw = (r: SetRaw): ElementSet => ({
 
 const NUMERIC_FIELDS = [
   'epoch',
-  'meanMotion',
+  'meanMotionRevPerDay',
   'eccentricity',
   'inclinationDeg',
   'raanDeg',
@@ -81,7 +81,7 @@ function storageProblem(s: ElementSet): string | null {
   for (const f of NUMERIC_FIELDS) {
     if (!Number.isFinite(s[f])) return `${f} is ${String(s[f])}; it must be a finite number`;
   }
-  if (!(s.meanMotion > 0)) return `mean motion ${s.meanMotion} rev/day is not positive`;
+  if (!(s.meanMotionRevPerDay > 0)) return `mean motion ${s.meanMotionRevPerDay} rev/day is not positive`;
   if (!(s.eccentricity >= 0 && s.eccentricity < 1)) {
     return `eccentricity ${s.eccentricity} is outside [0, 1); SGP4 needs a closed orbit`;
   }
@@ -162,7 +162,7 @@ export function storeElementSets(
       }
       insert.run(
         s.objectId, s.epoch, s.name, s.intlDesignator, s.classification,
-        s.meanMotion, s.eccentricity, s.inclinationDeg, s.raanDeg, s.argPerigeeDeg, s.meanAnomalyDeg,
+        s.meanMotionRevPerDay, s.eccentricity, s.inclinationDeg, s.raanDeg, s.argPerigeeDeg, s.meanAnomalyDeg,
         s.bstar, s.meanMotionDot, s.meanMotionDdot, s.elementSetNo, s.revAtEpoch, s.ephemerisType,
         s.source.file, s.source.line, s.source.format, fileId, now, corrects,
       );

@@ -25,7 +25,7 @@ const num = (x: number): string => (x === 0 ? '0' : x.toPrecision(ELEMENT_DIGITS
 export function elementsKey(s: ElementSet): string {
   return [
     s.classification,
-    num(s.meanMotion),
+    num(s.meanMotionRevPerDay),
     num(s.eccentricity),
     num(s.inclinationDeg),
     num(s.raanDeg),

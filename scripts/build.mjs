@@ -11,7 +11,7 @@
 // per-file compile with control over import paths. The module layout stays the same as the
 // sources, so lazy imports stay lazy and `--help` loads only what it loads from source.
 import { build } from 'esbuild';
-import { readdirSync, rmSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, renameSync, rmSync, statSync } from 'node:fs';
 import { dirname, join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -42,20 +42,34 @@ const keepImports = {
 };
 
 const t0 = performance.now();
-// Only the compiled program lives here; the Electron build writes its own sub-folders.
-for (const f of FOLDERS) rmSync(join(OUT, f), { recursive: true, force: true });
+// Built beside dist/ and swapped in folder by folder, so a `keepclear` started while another
+// build runs (two test runs at once) never finds a half-written or missing program.
+const STAGE = join(ROOT, `dist.build-${process.pid}`);
+rmSync(STAGE, { recursive: true, force: true });
 const entryPoints = FOLDERS.flatMap((f) => sources(join(ROOT, f)));
-await build({
-  entryPoints,
-  outdir: OUT,
-  outbase: ROOT,
-  bundle: true,
-  plugins: [keepImports],
-  platform: 'node',
-  format: 'esm',
-  target: 'node20',
-  sourcemap: 'linked',
-  logLevel: 'warning',
-});
+try {
+  await build({
+    entryPoints,
+    outdir: STAGE,
+    outbase: ROOT,
+    bundle: true,
+    plugins: [keepImports],
+    platform: 'node',
+    format: 'esm',
+    target: 'node20',
+    sourcemap: 'linked',
+    logLevel: 'warning',
+  });
+  mkdirSync(OUT, { recursive: true });
+  // Only the compiled program's folders are replaced; the Electron build keeps its own.
+  for (const f of FOLDERS) {
+    const old = join(OUT, `${f}.old-${process.pid}`);
+    if (existsSync(join(OUT, f))) renameSync(join(OUT, f), old);
+    renameSync(join(STAGE, f), join(OUT, f));
+    rmSync(old, { recursive: true, force: true });
+  }
+} finally {
+  rmSync(STAGE, { recursive: true, force: true });
+}
 const ms = performance.now() - t0;
 console.log(`keepclear: compiled ${entryPoints.length} files to ${relative(process.cwd(), OUT) || '.'}/ in ${ms.toFixed(0)} ms`);

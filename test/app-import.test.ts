@@ -17,7 +17,7 @@ import { countObjects, eventsOfRun, listImportFiles, listRuns, openDatabase } fr
 const T0 = parseIso('2026-03-01T00:00:00Z')!;
 const synthetic = (i: number): ElementSet => ({
   objectId: String(i), name: `SAT ${i}`, intlDesignator: null, classification: 'U', epoch: instantFromMs(T0),
-  meanMotion: 15, eccentricity: 0.001, inclinationDeg: 51.6, raanDeg: i % 360, argPerigeeDeg: 0, meanAnomalyDeg: i % 360,
+  meanMotionRevPerDay: 15, eccentricity: 0.001, inclinationDeg: 51.6, raanDeg: i % 360, argPerigeeDeg: 0, meanAnomalyDeg: i % 360,
   bstar: 1e-4, meanMotionDot: 0, meanMotionDdot: 0, elementSetNo: 1, revAtEpoch: 1, ephemerisType: 0,
   source: { file: 's', line: 1, format: 'SYNTHETIC' },
 });

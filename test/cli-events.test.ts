@@ -110,6 +110,18 @@ describe('keepclear events', () => {
     }
   });
 
+  it('every event carries its series (DESIGN.md "Series"); two runs of other primaries share none', () => {
+    const r = keepclear(['events', '--db', db, '--run', first.run!.id, '--json', '-']);
+    const out = JSON.parse(r.stdout) as { events: (EventJson & { seriesId: unknown; seriesState: unknown })[] };
+    for (const e of out.events) {
+      expect(e.seriesId, e.id).toMatch(/^S-R\d+-\d+$/);
+      expect(e.seriesState, e.id).toBe('new'); // seen once: the other run screened another primary
+    }
+    const again = JSON.parse(keepclear(['events', '--db', db, '--json', '-']).stdout) as { events: { seriesId: string }[] };
+    const mine = new Set(out.events.map((e) => e.seriesId));
+    expect(again.events.filter((e) => mine.has(e.seriesId))).toEqual([]);
+  });
+
   it('an empty database gives no run and no events', () => {
     const r = keepclear(['events', '--db', join(dir, 'empty.db'), '--json', '-']);
     expect(r.code, r.stderr).toBe(0);

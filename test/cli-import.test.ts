@@ -38,7 +38,7 @@ function synthetic(i: number): ElementSet {
     intlDesignator: '2025-001A',
     classification: 'U',
     epoch: instantFromMs(T0 + (i % 1000) * 60_000),
-    meanMotion: 14 + (i % 200) / 100,
+    meanMotionRevPerDay: 14 + (i % 200) / 100,
     eccentricity: ((i * 7) % 5000) / 1e6,
     inclinationDeg: (i * 0.37) % 180,
     raanDeg: (i * 1.13) % 360,

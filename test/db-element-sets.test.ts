@@ -31,7 +31,7 @@ function set(objectId: string, epoch: Instant, over: Partial<ElementSet> = {}): 
     intlDesignator: '2020-001A',
     classification: 'U',
     epoch,
-    meanMotion: 15.2,
+    meanMotionRevPerDay: 15.2,
     eccentricity: 0.0012,
     inclinationDeg: 53.05,
     raanDeg: 120.5,

@@ -185,6 +185,18 @@ describe('three weekly runs plus received messages', () => {
     expect(seriesStatus(gone, [runs[1]!, all], asOf).state).toBe('no-longer-predicted');
   });
 
+  it('a run whose volume would not have held the last miss cannot drop it; one that would, does', () => {
+    const gone = seriesOfEvent(series, 'R2-2');
+    const miss = gone.members[gone.members.length - 1]!.event.missKm;
+    const smaller: ScreeningCoverage = { ...runs[2]!, volume: { kind: 'sphere', radiusKm: miss * 0.9 } };
+    expect(seriesStatus(gone, [runs[1]!, smaller], asOf).state).toBe('new');
+    const larger: ScreeningCoverage = { ...runs[2]!, volume: { kind: 'sphere', radiusKm: miss * 1.1 } };
+    expect(seriesStatus(gone, [runs[1]!, larger], asOf).state).toBe('no-longer-predicted');
+    // an ellipsoid counts only its smallest semi-axis (the frame of the last sighting may differ)
+    const thin: ScreeningCoverage = { ...runs[2]!, volume: { kind: 'rtn-ellipsoid', rKm: miss * 0.5, tKm: 25, nKm: 25 } };
+    expect(seriesStatus(gone, [runs[1]!, thin], asOf).state).toBe('new');
+  });
+
   it('a run whose window ends before the TCA cannot drop it', () => {
     const gone = seriesOfEvent(series, 'R2-2');
     const short: ScreeningCoverage = { ...runs[2]!, end: at('2026-12-08T19:00:00Z') };

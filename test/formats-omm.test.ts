@@ -29,7 +29,7 @@ const GOES9 = {
   intlDesignator: '1995-025A',
   classification: 'U',
   epoch: Date.UTC(2007, 2, 5, 10, 34, 41) + 426.4,
-  meanMotion: 1.00273272,
+  meanMotionRevPerDay: 1.00273272,
   eccentricity: 0.0005013,
   inclinationDeg: 3.0539,
   raanDeg: 81.7939,
@@ -139,7 +139,7 @@ describe('writers round-trip through the readers', () => {
   const sets: ElementSet[] = [
     base,
     { ...base, objectId: '100001', name: 'A & <B> "C", D', intlDesignator: null, bstar: -3.3e-5, meanMotionDdot: 1.2e-11 },
-    { ...base, objectId: '7', name: null, eccentricity: 0.7303, meanMotion: 2.00613, epoch: (base.epoch + 123.456789) as never },
+    { ...base, objectId: '7', name: null, eccentricity: 0.7303, meanMotionRevPerDay: 2.00613, epoch: (base.epoch + 123.456789) as never },
   ];
   const HDR = { creationDate: '2026-01-01T00:00:00', originator: 'TEST' };
   /** The writers keep microseconds: a written epoch is within 0.5 µs (+ double rounding). */

@@ -91,7 +91,7 @@ describe('TLE fields vs python-sgp4 2.15 on the AIAA 2006-6753 verification sets
       expect(Math.abs(s.argPerigeeDeg * DEG2RAD - r.argpo)).toBeLessThanOrEqual(ANGLE_TOL_RAD);
       expect(Math.abs(s.meanAnomalyDeg * DEG2RAD - r.mo)).toBeLessThanOrEqual(ANGLE_TOL_RAD);
       expect(closeRel(s.eccentricity, r.ecco, REL_TOL_DOUBLE)).toBe(true);
-      expect(closeRel(s.meanMotion / XPDOTP, r.no_kozai, REL_TOL_DOUBLE)).toBe(true);
+      expect(closeRel(s.meanMotionRevPerDay / XPDOTP, r.no_kozai, REL_TOL_DOUBLE)).toBe(true);
     });
   });
 
@@ -206,7 +206,7 @@ describe('100,000-record TLE parse', () => {
         objectId: String(k + 1 + (k % 3 === 0 ? 200_000 : 0)),
         name: k % 2 === 0 ? `OBJ ${k}` : null,
         epoch: instantFromMs(Date.UTC(2026, 0, 1) + k * 61_000),
-        meanMotion: 1 + (k % 1500) / 100,
+        meanMotionRevPerDay: 1 + (k % 1500) / 100,
         eccentricity: (k % 997) / 1000,
         inclinationDeg: (k * 7) % 180,
         raanDeg: (k * 13) % 360,

@@ -98,7 +98,7 @@ describe("SGP4's recovered (un-Kozai'd) semi-major axis, WGS-72", () => {
     const J2 = 0.001082616, RE = 6378.135, MU72 = 398600.8; // WGS-72 (Spacetrack Report #3)
     for (const ref of fixture.sgp4) {
       const set = parseTle(`${ref.line1}\n${ref.line2}`, 'x').sets[0]!;
-      const aK = meanMotionToSemiMajorAxis(set.meanMotion, MU72) / RE;
+      const aK = meanMotionToSemiMajorAxis(set.meanMotionRevPerDay, MU72) / RE;
       const c = Math.cos((set.inclinationDeg * Math.PI) / 180);
       const delta = (0.75 * J2 * (3 * c * c - 1)) / (aK * aK * Math.pow(1 - set.eccentricity ** 2, 1.5));
       const expected = aK * (1 + (2 / 3) * delta) * RE;

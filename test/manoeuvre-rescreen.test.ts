@@ -31,7 +31,7 @@ const MISS_TOL_KM = 5e-3;
 
 describe('re-screen of the manoeuvred trajectory', () => {
   const primary = new Sgp4Trajectory(PRIMARY);
-  const periodS = 86_400 / PRIMARY.meanMotion;
+  const periodS = 86_400 / PRIMARY.meanMotionRevPerDay;
   const planted = plantEncounter({
     primary: PRIMARY, secondaryId: '90001', secondaryName: 'EVENT SECONDARY', tca: TCA, missKm: 0.1, missAngleDeg: 30,
     geometry: { kind: 'crossing', angleDeg: 90 }, fitEpoch: tleExactEpoch(TCA - 30 * 3_600_000), bstar: 5e-5,
@@ -70,7 +70,7 @@ describe('re-screen of the manoeuvred trajectory', () => {
     const session = new ScreeningSession({ start: burn, end: windowEnd, volume: { kind: 'sphere', radiusKm: SCREEN_KM } });
     const obj: ScreeningObject = {
       id: PRIMARY.objectId, trajectory: p, epoch: PRIMARY.epoch, periodMin: periodS / 60,
-      gridStepMs: gridStepMs(PRIMARY.meanMotion, PRIMARY.eccentricity), vMaxKmS: 8.5,
+      gridStepMs: gridStepMs(PRIMARY.meanMotionRevPerDay, PRIMARY.eccentricity), vMaxKmS: 8.5,
     };
     const grid = session.grid(obj)!;
     expect(grid).not.toBeNull();

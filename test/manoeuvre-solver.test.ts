@@ -59,7 +59,7 @@ function planted(geometry: Geometry, missKm: number, missAngleDeg: number): Scen
 
 function scenario(secondary: Trajectory, secondaryEpoch: Instant): Scenario {
   const primary = new Sgp4Trajectory(PRIMARY);
-  const periodS = 86_400 / PRIMARY.meanMotion;
+  const periodS = 86_400 / PRIMARY.meanMotionRevPerDay;
   const event = closestApproachNear({ primary, secondary, primaryEpoch: PRIMARY.epoch, secondaryEpoch, minPeriodS: periodS }, TCA, periodS / 4)!;
   return { primary, secondary, event, periodS };
 }

@@ -13,7 +13,7 @@ import { temeToGcrf } from '../core/frames/teme.js';
 import { coverageGap, describeCoverageGap, EphemerisTrajectory } from '../core/propagation/ephemeris.js';
 import { DEFAULT_INTERPOLATION } from '../core/propagation/interpolation.js';
 import { instantFromMs, type Instant } from '../core/time/instant.js';
-import { vec3, type Km, type KmPerS } from '../core/units.js';
+import { vec3, type Km, type KmS } from '../core/units.js';
 import { TwoBody, TwoBodyTrajectory } from './support/twoBody.js';
 
 const T0 = Date.UTC(2026, 6, 1);
@@ -166,7 +166,7 @@ describe('the object\'s covariance from the OEM, in RTN (m²)', () => {
   it('EME2000: rotated to TEME with core/frames, then to RTN', () => {
     const t = instantFromMs(epoch);
     const toEme = (v: number[]): number[] =>
-      [...gcrfToEme2000(temeToGcrf({ r: vec3<'TEME', Km>(v[0]!, v[1]!, v[2]!), v: vec3<'TEME', KmPerS>(0, 0, 0) }, t)).r];
+      [...gcrfToEme2000(temeToGcrf({ r: vec3<'TEME', Km>(v[0]!, v[1]!, v[2]!), v: vec3<'TEME', KmS>(0, 0, 0) }, t)).r];
     const traj = withCovariances([covOf([toEme(R), toEme(T), toEme(N)], D, 'EME2000', 'EME2000', epoch)]);
     close(traj.covarianceRtnAt(t)!.rtnM2, diagM2);
   });

@@ -49,7 +49,7 @@ describe('SGP4 sampled into an OEM, written, read back: TEME states as SGP4 give
    * 2006, AIAA 2006-6753), ≈ 7e-9 km at this radius; 1e-8 km with margin.
    */
   const SGP4_NOISE_KM = 1e-8; // km
-  const R = 6878, n = (2 * Math.PI) / (86_400 / es.meanMotion);
+  const R = 6878, n = (2 * Math.PI) / (86_400 / es.meanMotionRevPerDay);
   /**
    * SGP4's J2 short-period terms (~10 km at twice the orbital rate) add (2n)^k·10 km to the
    * k-th derivative of a circular orbit's R·n^k: ≤ 1.5·R·n^k for k ≤ 10, so ×3 covers them.

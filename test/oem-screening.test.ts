@@ -25,6 +25,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runToJson } from '../app/eventJson.js';
 import { KeepclearError } from '../core/errors.js';
 import { importFile } from '../app/import/index.js';
+import { RiskContext } from '../app/risk.js';
 import { screenAndStore, type ScreenResult } from '../app/screen.js';
 import { formatOemKvn, sampleOem, type Oem } from '../core/formats/oem/index.js';
 import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
@@ -126,6 +127,28 @@ function withCovariance(epoch: number, sigmaKm: [number, number, number]) {
   };
 }
 
+describe('an OEM that starts exactly at the window start (and ends 1 h after its end)', () => {
+  it('finds the same events as SGP4: sampling starts where the ephemeris does', async () => {
+    const sgp4Db = freshDb();
+    const oemDb = freshDb();
+    try {
+      const a = await screen(sgp4Db, fleet);
+      fleet.forEach((id) => importOem(oemDb, `exact-${id}.oem`, start, end + HOUR, undefined, id));
+      const b = await screen(oemDb, fleet);
+      expect(b.run.flagged).toEqual([]);
+      expect(b.ephemerides).toHaveLength(fleet.length);
+      expect(b.events.map((e) => `${e.primary}-${e.secondary}`)).toEqual(a.events.map((e) => `${e.primary}-${e.secondary}`));
+      a.events.forEach((x, k) => {
+        expect(Math.abs(b.events[k]!.tca - x.tca)).toBeLessThan(TCA_TOL_MS);
+        expect(Math.abs(b.events[k]!.missKm - x.missKm)).toBeLessThan(MISS_TOL_KM);
+      });
+    } finally {
+      sgp4Db.close();
+      oemDb.close();
+    }
+  });
+});
+
 describe('the OEM\'s covariance is the primary\'s covariance for Pc', () => {
   it('takes the block at or before TCA, in RTN, and names the file in covarianceSource', async () => {
     const db = freshDb();
@@ -141,6 +164,8 @@ describe('the OEM\'s covariance is the primary\'s covariance for Pc', () => {
         expect(c[1][1]).toBeCloseTo(90000, 6);
         expect(c[2][2]).toBeCloseTo(400, 6);
         expect(e.risk!.warnings.join(' ')).toMatch(/not propagated to the requested time/);
+        // Assessed again later (as when a message joins its series), the stored event keeps it.
+        expect(new RiskContext(db).assess(e).covarianceSource).toBe(e.risk!.covarianceSource);
       }
     } finally {
       db.close();
@@ -154,13 +179,24 @@ describe('a window the ephemeris does not cover', () => {
     try {
       const file = importOem(db, 'short.oem', start - HOUR, start + 24 * HOUR);
       await expect(screen(db)).rejects.toThrow(
-        new RegExp(`ephemeris does not cover ${toIso((start + 24 * HOUR) as Instant)} to ${toIso(end)} for primary ${primary}`),
+        // screening needs the ephemeris up to 1 h past the window's end (EPHEMERIS_END_MARGIN_MS)
+        new RegExp(`ephemeris does not cover ${toIso((start + 24 * HOUR) as Instant)} to ${toIso((end + HOUR) as Instant)} for primary ${primary}`),
       );
       const err = (await screen(db).then(() => null, (e: unknown) => e)) as KeepclearError;
       expect(err).toBeInstanceOf(KeepclearError);
       expect(err.code).toBe('EPHEMERIS_GAP');
       expect(err.toLine().startsWith(`${file}:1: `)).toBe(true);
       expect(listRuns(db, 10)).toEqual([]);
+    } finally {
+      db.close();
+    }
+  });
+
+  it('an ephemeris that stops at the window end lacks the 1-h margin screening needs, and says so', async () => {
+    const db = freshDb();
+    try {
+      importOem(db, 'to-the-end.oem', start, end);
+      await expect(screen(db)).rejects.toThrow(/screening needs the ephemeris up to 1 h past the window end/);
     } finally {
       db.close();
     }

@@ -103,11 +103,11 @@ describe('default covariance table', () => {
     expect(growth / (10 * 100)).toBeLessThan(1.1);
   });
   it('regimes by mean motion and eccentricity', () => {
-    expect(regimeOf({ meanMotion: 15.5, eccentricity: 0.0005 })).toBe('LEO-low'); // ~420 km
-    expect(regimeOf({ meanMotion: 14.2, eccentricity: 0.001 })).toBe('LEO'); // ~800 km
-    expect(regimeOf({ meanMotion: 2.005, eccentricity: 0.01 })).toBe('MEO'); // GNSS
-    expect(regimeOf({ meanMotion: 1.0027, eccentricity: 0.0002 })).toBe('GEO');
-    expect(regimeOf({ meanMotion: 2.006, eccentricity: 0.72 })).toBe('HEO'); // Molniya-type
+    expect(regimeOf({ meanMotionRevPerDay: 15.5, eccentricity: 0.0005 })).toBe('LEO-low'); // ~420 km
+    expect(regimeOf({ meanMotionRevPerDay: 14.2, eccentricity: 0.001 })).toBe('LEO'); // ~800 km
+    expect(regimeOf({ meanMotionRevPerDay: 2.005, eccentricity: 0.01 })).toBe('MEO'); // GNSS
+    expect(regimeOf({ meanMotionRevPerDay: 1.0027, eccentricity: 0.0002 })).toBe('GEO');
+    expect(regimeOf({ meanMotionRevPerDay: 2.006, eccentricity: 0.72 })).toBe('HEO'); // Molniya-type
   });
   it('grows as √(σ₀² + (g·age)²), named in the source string', () => {
     const row = DEFAULT_COVARIANCE_TABLE.LEO;
@@ -125,7 +125,7 @@ describe('covarianceFromHistory on a synthetic history with a known perturbation
   const epochN = parseIso('2026-03-01T00:00:00Z')!;
   const base: ElementSet = {
     objectId: '90001', name: 'SYNTH', intlDesignator: null, classification: 'U', epoch: epochN,
-    meanMotion: 14.8, eccentricity: 0.0008, inclinationDeg: 53, raanDeg: 120, argPerigeeDeg: 80, meanAnomalyDeg: 200,
+    meanMotionRevPerDay: 14.8, eccentricity: 0.0008, inclinationDeg: 53, raanDeg: 120, argPerigeeDeg: 80, meanAnomalyDeg: 200,
     bstar: 0, meanMotionDot: 0, meanMotionDdot: 0, elementSetNo: 1, revAtEpoch: 1, ephemerisType: 0,
     source: { file: 'synthetic', line: 1, format: 'SYNTHETIC' },
   };

@@ -34,23 +34,32 @@ function edited(object2: (keyword: string, value: string) => string): string {
 }
 
 describe('all-zero CDM covariance', () => {
-  it('is refused on reading with a message naming the object, the line and what to do', () => {
+  it('is refused (not used for Pc) with a note naming the file, line and object; the message itself is kept', () => {
     const text = edited((kw, v) => (/^C(R|T|N)_(R|T|N)$/.test(kw) ? '0.0' : v));
     const r = parseCdmFile(Buffer.from(text), 'zero.kvn');
-    expect(r.cdm).toBeNull();
-    expect(r.errors).toHaveLength(1);
-    const e = r.errors[0]!;
-    expect(e.code).toBe('CDM_COVARIANCE');
-    expect(e.line).toBe(lines.findIndex((l, i) => i > object2Start && l.startsWith('CR_R')) + 1);
-    expect(e.reason).toMatch(/OBJECT2 covariance has an all-zero position block: it states no uncertainty/);
-    expect(e.reason).toMatch(/ask the originator for a valid covariance/);
-  });
-  it('kept with badCovariance "flag": status zero, nothing usable', () => {
-    const text = edited(() => '0.0');
-    const r = parseCdmFile(Buffer.from(text), 'zero.kvn', { badCovariance: 'flag' });
+    expect(r.errors).toEqual([]);
+    const line = lines.findIndex((l, i) => i > object2Start && l.startsWith('CR_R')) + 1;
+    expect(r.repairs).toEqual([
+      `zero.kvn:${line}: OBJECT2 covariance has an all-zero position block: it states no uncertainty and is not used for Pc`,
+    ]);
     expect(r.cdm!.object2.covariance.status).toBe('zero');
     expect(r.cdm!.object2.covariance.usable).toBeNull();
     expect(r.cdm!.object1.covariance.status).toBe('psd');
+  });
+  it('the assessment then uses maximum Pc and says why', () => {
+    const v = judgeCovariance(Array.from({ length: 6 }, () => new Array<number>(6).fill(0)), 'OBJECT2');
+    const tca = parseIso('2026-12-07T10:00:00Z')! as Instant;
+    const enc = {
+      primary: '100001', secondary: '110001', tca, missKm: 0.05, relativeSpeedKmS: 7.6,
+      primaryState: [6928, 0, 0, 0, 7.58, 0.1], secondaryState: [6928.05, 0, 0, 0, -1.2, 7.5],
+      primaryEpoch: tca, secondaryEpoch: tca,
+    } as unknown as Encounter;
+    const a = assessEncounter(enc, {
+      primary: { cdmRtnM2: [[100, 0, 0], [0, 400, 0], [0, 0, 100]] },
+      secondary: { cdmDoubtfulNote: v.note! },
+    });
+    expect(a.pcMethod).toBe('max-pc (doubtful covariance)');
+    expect(a.warnings.join(' ')).toMatch(/all-zero position block/);
   });
 });
 

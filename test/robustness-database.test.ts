@@ -23,7 +23,7 @@ const T0 = parseIso('2026-03-01T00:00:00Z')!;
 function synthetic(i: number): ElementSet {
   return {
     objectId: String(i), name: `TESTSAT ${i}`, intlDesignator: '2025-001A', classification: 'U',
-    epoch: instantFromMs(T0 + (i % 1000) * 60_000), meanMotion: 14 + (i % 200) / 100,
+    epoch: instantFromMs(T0 + (i % 1000) * 60_000), meanMotionRevPerDay: 14 + (i % 200) / 100,
     eccentricity: ((i * 7) % 5000) / 1e6, inclinationDeg: (i * 0.37) % 180, raanDeg: (i * 1.13) % 360,
     argPerigeeDeg: (i * 2.71) % 360, meanAnomalyDeg: (i * 3.14) % 360, bstar: 1e-4, meanMotionDot: 1e-5,
     meanMotionDdot: 0, elementSetNo: 999, revAtEpoch: i % 100_000, ephemerisType: 0,

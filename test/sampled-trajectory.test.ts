@@ -176,6 +176,17 @@ describe('failing sources', () => {
   });
 });
 
+/** A source that ends where its span ends (an ephemeris covering exactly the window). */
+class SpanLimited implements Trajectory {
+  readonly objectId: string;
+  constructor(private readonly inner: Trajectory, readonly span: { readonly start: Instant; readonly end: Instant }) {
+    this.objectId = inner.objectId;
+  }
+  stateInto(t: Instant, out: Float64Array, off: number): FailureReason | null {
+    return t < this.span.start || t > this.span.end ? 'outside-ephemeris' : this.inner.stateInto(t, out, off);
+  }
+}
+
 describe('screening a sampled primary equals screening the SGP4 primary', () => {
   const catalog = generateCatalog({ size: 2000, seed: 11, epoch: START });
   const primaries = catalog.filter((c) => c.name?.startsWith('SKEIN')).slice(0, 2).map((c) => c.objectId);
@@ -201,4 +212,16 @@ describe('screening a sampled primary equals screening the SGP4 primary', () => 
       expect(worstMiss).toBeLessThanOrEqual(MISS_TOL_KM);
     });
   }
+
+  it('a primary whose trajectory covers exactly the window: same events, nothing flagged', async () => {
+    const ref = await runScreening(catalog, settings, { workers: 0 });
+    const given = primaries.map((id) => ({
+      trajectory: new SpanLimited(new Sgp4Trajectory(catalog.find((c) => c.objectId === id)!), { start: settings.start, end: settings.end }),
+    }));
+    const out = await runScreening(catalog, settings, { workers: 0, primaryTrajectories: given });
+    expect(out.flagged).toEqual(ref.flagged);
+    expect(out.encounters.map((e) => `${e.primary}-${e.secondary}@${Math.round(e.tca)}`)).toEqual(
+      ref.encounters.map((e) => `${e.primary}-${e.secondary}@${Math.round(e.tca)}`),
+    );
+  });
 });

@@ -167,11 +167,12 @@ describe('scene contents from the event', () => {
     const catalogue: Trajectory[] = [
       new StraightLineTrajectory('110001', TCA, [0, 8000, 0], [0, 0, 7]),
       new Failing('110002'),
-      new StraightLineTrajectory('110003', TCA, [-42164, 0, 0], [0, -3.07, 0]),
+      new StraightLineTrajectory('110003', TCA, [-42164.0004567, 0.0126, 0], [0, -3.07, 0]),
     ];
     const scene = buildEncounterScene({ event: { ...encounter(primary, secondary), id: 'R1-1', risk }, primary, secondary, catalogue });
     expect(scene.eventId).toBe('R1-1');
-    expect(scene.catalogue).toEqual({ count: 2, positionsTemeKm: [0, 8000, 0, -42164, 0, 0], failed: 1 });
+    // positions rounded to the metre
+    expect(scene.catalogue).toEqual({ count: 2, positionsTemeKm: [0, 8000, 0, -42164, 0.013, 0], failed: 1 });
     close(scene.covariance.primary!.sigmaM, [300, 30, 20], ROUND_TOL);
     expect(scene.covariance.secondary).toBeNull();
     expect(scene.covariance.combined).toBeNull();

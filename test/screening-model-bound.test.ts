@@ -61,7 +61,7 @@ describe('filter model error bound (ε) against SGP4', () => {
         for (const e of [0.001, 0.02]) {
           sets.push({
             objectId: String(id++), name: `LOCKED k${k} i${inc} e${e}`, intlDesignator: null, classification: 'U',
-            epoch: (START - 86_400_000) as Instant, meanMotion: 1440 / periodMin, eccentricity: e, inclinationDeg: inc,
+            epoch: (START - 86_400_000) as Instant, meanMotionRevPerDay: 1440 / periodMin, eccentricity: e, inclinationDeg: inc,
             raanDeg: 40, argPerigeeDeg: 80, meanAnomalyDeg: 10, bstar: 1e-5, meanMotionDot: 0, meanMotionDdot: 0,
             elementSetNo: 1, revAtEpoch: 1, ephemerisType: 0, source: { file: 'test', line: id, format: 'SYNTHETIC' },
           });

@@ -161,7 +161,7 @@ function fromInitArgs(c: ErrorFixture['initCases'][number]): ElementSet {
     argPerigeeDeg: c.argpoRad * DEG,
     inclinationDeg: c.incloRad * DEG,
     meanAnomalyDeg: c.moRad * DEG,
-    meanMotion: (c.noRadPerMin * 1440) / (2 * Math.PI),
+    meanMotionRevPerDay: (c.noRadPerMin * 1440) / (2 * Math.PI),
     raanDeg: c.nodeoRad * DEG,
   };
 }

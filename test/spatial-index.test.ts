@@ -27,7 +27,7 @@ describe('interpolation and in-step motion pads hold against SGP4', () => {
   it('|SGP4 − Hermite| ≤ E and |SGP4 − (p + w·τ)| ≤ q at random instants, every family', () => {
     const sets = generateCatalog({ size: 1200, seed: 11, epoch: START as Instant });
     const trs = sets.map((s) => new Sgp4Trajectory(s));
-    const plans = sets.map((s) => samplingPlan(s.meanMotion, s.eccentricity));
+    const plans = sets.map((s) => samplingPlan(s.meanMotionRevPerDay, s.eccentricity));
     const members = Int32Array.from(sets.map((_, i) => i));
     const t0 = START + 3 * 3_600_000, t1 = t0 + 3_600_000;
     const tracks = new BlockTracks(t0, t1, trs, plans, members);

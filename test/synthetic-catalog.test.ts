@@ -12,7 +12,7 @@ const RE = R_EARTH_WGS72 as number;
 
 /** Semi-major axis (km) of a mean motion, Kepler's third law, written out here on purpose. */
 const aOf = (es: ElementSet): number => {
-  const n = (es.meanMotion * 2 * Math.PI) / 86_400;
+  const n = (es.meanMotionRevPerDay * 2 * Math.PI) / 86_400;
   return Math.cbrt(MU_EARTH_WGS72 / (n * n));
 };
 const family = (cat: ElementSet[], prefix: string): ElementSet[] => cat.filter((e) => e.name?.startsWith(prefix));
@@ -28,10 +28,11 @@ describe('synthetic catalogue: determinism', () => {
 
   it('is frozen: the seed-1 catalogue keeps its fingerprint (benchmarks compare across runs)', () => {
     // If this changes on purpose, update the hash and say so in the commit: benchmark numbers
-    // from before the change are then not comparable.
+    // from before the change are then not comparable. (Changed once for the field rename
+    // meanMotion → meanMotionRevPerDay: same values, the JSON key differs.)
     const text = JSON.stringify(generateCatalog({ size: 1000, seed: 1, epoch: EPOCH }));
     expect(createHash('sha256').update(text).digest('hex')).toBe(
-      '47d71f59b0abc213fa0ad4afb9b355be4d3188008d4049172056b55ad8366a43',
+      'a9c8e880c515972d8fb093adf4f928fa0017cce911c70c3bebf1abff068a418d',
     );
   });
 });
@@ -47,7 +48,7 @@ describe('synthetic catalogue: shape', () => {
     // 108 ms slack: epochs are floored to whole 108 ms steps (TLE-exact), never past the reference.
     const outside = cat.filter((e) => e.epoch > EPOCH || e.epoch < EPOCH - 3 * MS_PER_DAY - 108);
     expect(outside.map((e) => e.objectId)).toEqual([]);
-    const numeric = ['meanMotion', 'eccentricity', 'inclinationDeg', 'raanDeg', 'argPerigeeDeg', 'meanAnomalyDeg', 'bstar', 'meanMotionDot'] as const;
+    const numeric = ['meanMotionRevPerDay', 'eccentricity', 'inclinationDeg', 'raanDeg', 'argPerigeeDeg', 'meanAnomalyDeg', 'bstar', 'meanMotionDot'] as const;
     const notFinite = cat.filter((e) => numeric.some((k) => !Number.isFinite(e[k])));
     expect(notFinite.map((e) => e.objectId)).toEqual([]);
     // Element-set ages spread over the window rather than sitting at one instant.
@@ -142,7 +143,7 @@ describe('synthetic catalogue: shape', () => {
     for (const e of geo) {
       expect(Math.abs(aOf(e) - 42_164)).toBeLessThan(5);
       expect(e.inclinationDeg).toBeLessThan(0.2);
-      expect(e.meanMotion).toBeCloseTo(1.0027, 3); // rev/day: one sidereal day
+      expect(e.meanMotionRevPerDay).toBeCloseTo(1.0027, 3); // rev/day: one sidereal day
     }
     const median = geo.map(aOf).sort((x, y) => x - y)[geo.length >> 1]!;
     expect(Math.abs(median - 42_164)).toBeLessThan(0.5);
@@ -170,7 +171,7 @@ describe('synthetic catalogue: shape', () => {
     }
     for (const e of family(cat, 'HEO')) {
       expect(Math.abs(e.inclinationDeg - 63.4)).toBeLessThan(1.5);
-      expect(Math.abs(e.meanMotion - 2.0055)).toBeLessThan(0.001); // two revolutions per sidereal day
+      expect(Math.abs(e.meanMotionRevPerDay - 2.0055)).toBeLessThan(0.001); // two revolutions per sidereal day
     }
   });
 

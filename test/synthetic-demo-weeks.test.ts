@@ -29,7 +29,7 @@ import { buildDemoScenario } from '../core/synthetic/demo.js';
 import { DEMO_CDM_ORIGINATOR } from '../core/synthetic/demoCdm.js';
 import { buildDemoWeeks, type DemoApproach, type DemoWeeks } from '../core/synthetic/demoWeeks.js';
 import { MS_PER_DAY, parseIso, type Instant } from '../core/time/instant.js';
-import { vec3, type Km, type KmPerS } from '../core/units.js';
+import { vec3, type Km, type KmS } from '../core/units.js';
 
 const SIZE = 300;
 /** A designed belief is planted to 1 m (fit contract) and found by refinement to 1 m: 5 m margin. */
@@ -57,7 +57,7 @@ const near = (week: number, a: DemoApproach): Encounter[] =>
 function cdmEncounter(cdm: Cdm): Encounter {
   const teme = (o: CdmObject): StateArray => {
     const [x, y, z] = o.state.r, [vx, vy, vz] = o.state.v;
-    const s = gcrfToTeme(eme2000ToGcrf({ r: vec3<'EME2000', Km>(x, y, z), v: vec3<'EME2000', KmPerS>(vx, vy, vz) }), cdm.relative.tca);
+    const s = gcrfToTeme(eme2000ToGcrf({ r: vec3<'EME2000', Km>(x, y, z), v: vec3<'EME2000', KmS>(vx, vy, vz) }), cdm.relative.tca);
     return [s.r[0], s.r[1], s.r[2], s.v[0], s.v[1], s.v[2]];
   };
   const p = teme(cdm.object1), s = teme(cdm.object2);
@@ -147,7 +147,7 @@ describe('catalogue updates are consistent with one truth', () => {
     const d: number[] = [];
     for (const [id, es] of newer) {
       if (designed.has(id)) continue; // designed beliefs differ on purpose
-      if (es.meanMotion < 6.4 || es.bstar >= 5e-4) continue;
+      if (es.meanMotionRevPerDay < 6.4 || es.bstar >= 5e-4) continue;
       new Sgp4Trajectory(older.get(id)!).stateInto(es.epoch, a, 0);
       new Sgp4Trajectory(es).stateInto(es.epoch, b, 0);
       d.push(Math.hypot(a[0]! - b[0]!, a[1]! - b[1]!, a[2]! - b[2]!));

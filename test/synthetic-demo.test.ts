@@ -38,7 +38,7 @@ function closestApproach(range: (t: number) => number, centre: number): { t: num
 }
 
 const semiMajorAxisKm = (es: ElementSet): number => {
-  const n = (es.meanMotion * 2 * Math.PI) / 86_400; // Kepler III with SGP4's WGS-72 μ
+  const n = (es.meanMotionRevPerDay * 2 * Math.PI) / 86_400; // Kepler III with SGP4's WGS-72 μ
   return Math.cbrt(MU_EARTH_WGS72 / (n * n));
 };
 const perigeeAltKm = (es: ElementSet): number => semiMajorAxisKm(es) * (1 - es.eccentricity) - R_EARTH_WGS72;

@@ -12,7 +12,7 @@ const VELOCITY_TOL_KMS = 1e-6; // 1 mm/s
 const EPOCH = parseIso('2026-12-05T06:00:00.000Z')!;
 const base: ElementSet = {
   objectId: '42', name: 'TEST', intlDesignator: null, classification: 'U', epoch: EPOCH,
-  meanMotion: 15.2, eccentricity: 0.0012, inclinationDeg: 53, raanDeg: 120, argPerigeeDeg: 80,
+  meanMotionRevPerDay: 15.2, eccentricity: 0.0012, inclinationDeg: 53, raanDeg: 120, argPerigeeDeg: 80,
   meanAnomalyDeg: 200, bstar: 2e-4, meanMotionDot: 0, meanMotionDdot: 0, elementSetNo: 1,
   revAtEpoch: 0, ephemerisType: 0, source: { file: 'test', line: 1, format: 'SYNTHETIC' },
 };
@@ -20,12 +20,12 @@ const base: ElementSet = {
 /** Hand-picked sets covering the regimes: drag-heavy LEO, sun-synchronous, GEO, GTO, 12-hour HEO. */
 const CASES: [string, Partial<ElementSet>][] = [
   ['LEO 53° with drag', {}],
-  ['low LEO, strong drag', { meanMotion: 15.9, eccentricity: 0.0005, bstar: 6e-4 }],
-  ['sun-synchronous', { meanMotion: 14.6, inclinationDeg: 98.2, eccentricity: 0.0009, bstar: 5e-5 }],
+  ['low LEO, strong drag', { meanMotionRevPerDay: 15.9, eccentricity: 0.0005, bstar: 6e-4 }],
+  ['sun-synchronous', { meanMotionRevPerDay: 14.6, inclinationDeg: 98.2, eccentricity: 0.0009, bstar: 5e-5 }],
   ['near-circular, ω and M not separable', { eccentricity: 2e-6 }],
-  ['GEO (deep space)', { meanMotion: 1.0027, eccentricity: 0.0002, inclinationDeg: 0.05, bstar: 0 }],
-  ['GTO (deep space, eccentric)', { meanMotion: 2.25, eccentricity: 0.73, inclinationDeg: 27, bstar: 3e-5 }],
-  ['Molniya-like HEO', { meanMotion: 2.0056, eccentricity: 0.72, inclinationDeg: 63.4, argPerigeeDeg: 270, bstar: 1e-5 }],
+  ['GEO (deep space)', { meanMotionRevPerDay: 1.0027, eccentricity: 0.0002, inclinationDeg: 0.05, bstar: 0 }],
+  ['GTO (deep space, eccentric)', { meanMotionRevPerDay: 2.25, eccentricity: 0.73, inclinationDeg: 27, bstar: 3e-5 }],
+  ['Molniya-like HEO', { meanMotionRevPerDay: 2.0056, eccentricity: 0.72, inclinationDeg: 63.4, argPerigeeDeg: 270, bstar: 1e-5 }],
 ];
 
 function stateOf(es: ElementSet, t: Instant): { r: number[]; v: number[] } {
@@ -51,7 +51,7 @@ describe('fitElementSetToState', () => {
         expect(fitted.epoch).toBe(EPOCH);
         // The mean elements are unique for a given B*, so the original set comes back. 1e-6
         // rev/day in n is ~0.4 m in a; near-circular orbits only fix ω + M, so compare that.
-        expect(Math.abs(fitted.meanMotion - truth.meanMotion)).toBeLessThan(1e-6);
+        expect(Math.abs(fitted.meanMotionRevPerDay - truth.meanMotionRevPerDay)).toBeLessThan(1e-6);
         expect(Math.abs(fitted.eccentricity - truth.eccentricity)).toBeLessThan(1e-6);
         expect(Math.abs(fitted.inclinationDeg - truth.inclinationDeg)).toBeLessThan(1e-5);
         const u = (es: ElementSet): number => es.raanDeg + es.argPerigeeDeg + es.meanAnomalyDeg;

@@ -25,7 +25,7 @@ const TLE_ROUNDING_KM = 0.05;
 
 const catalog = generateCatalog({ size: 600, seed: 9, epoch: EPOCH, maxAgeDays: 2 });
 const perigeeAltKm = (es: ElementSet): number => {
-  const n = (es.meanMotion * 2 * Math.PI) / 86_400;
+  const n = (es.meanMotionRevPerDay * 2 * Math.PI) / 86_400;
   return Math.cbrt(MU_EARTH_WGS72 / (n * n)) * (1 - es.eccentricity) - R_EARTH_WGS72;
 };
 
@@ -57,7 +57,7 @@ describe('reEpochElementSet', () => {
     for (const es of reachLeo.slice(0, 100)) {
       const epoch = tleExactEpoch(es.epoch - WEEK);
       const next = reEpochElementSet(es, epoch);
-      expect(next.meanMotion).toBe(Number(next.meanMotion.toFixed(8)));
+      expect(next.meanMotionRevPerDay).toBe(Number(next.meanMotionRevPerDay.toFixed(8)));
       expect(next.inclinationDeg).toBe(Number(next.inclinationDeg.toFixed(4)));
       expect(posKm(stateAt(next, epoch), stateAt(es, epoch))).toBeLessThan(TLE_ROUNDING_KM);
     }
@@ -90,7 +90,7 @@ describe('reissueCatalog', () => {
       if (perigeeAltKm(es) <= FAR_PERIGEE_ALT_KM) return;
       const next = update.sets[k]!;
       const d = posKm(stateAt(next, next.epoch), stateAt(es, next.epoch));
-      const geo = es.meanMotion > 0.9 && es.meanMotion < 1.1;
+      const geo = es.meanMotionRevPerDay > 0.9 && es.meanMotionRevPerDay < 1.1;
       expect(d, `${es.objectId} ${es.name}`).toBeLessThan(geo ? 61 : 2);
     });
   });

@@ -93,6 +93,10 @@ describe.skipIf(missing !== null)('3-D view in headless Chromium', () => {
     expect(lumaVariance(earth)).toBeGreaterThan(MIN_DRAWN_VARIANCE);
     expect(lumaVariance(rtn)).toBeGreaterThan(MIN_DRAWN_VARIANCE);
     expect(errors).toEqual([]);
+    // 1200 × 640: side by side (each ~600 × 585 is squarer than 1200 × 290 stacked)
+    const [e, r] = await Promise.all(['earth', 'rtn'].map((p) => page.locator(`[data-panel=${p}]`).boundingBox()));
+    expect(r!.x).toBeGreaterThan(e!.x + e!.width - 5);
+    expect(Math.abs(r!.y - e!.y)).toBeLessThan(1);
   });
 
   it('setTime moves the markers in both panels and the scrubber follows', async () => {
@@ -154,15 +158,15 @@ describe.skipIf(missing !== null)('3-D view in headless Chromium', () => {
   });
 
   it('follows a resize of its host', async () => {
-    await page.evaluate(() => Object.assign(document.getElementById('view')!.style, { width: '700px', height: '700px' }));
+    await page.evaluate(() => Object.assign(document.getElementById('view')!.style, { width: '500px', height: '1000px' }));
     await settle(page);
     await settle(page);
     const dims = await page.evaluate(() =>
       Array.from(document.querySelectorAll<HTMLCanvasElement>('#view canvas')).map((c) => [c.width, c.clientWidth, c.height, c.clientHeight]),
     );
-    // Narrower than 760 px: the panels stack, each as wide as the host.
+    // Tall and narrow: the panels stack (squarer than side by side), each as wide as the host.
     for (const [w, cw, h, ch] of dims) {
-      expect(cw).toBe(700);
+      expect(cw).toBe(500);
       expect(w).toBe(cw);
       expect(h).toBe(ch);
     }

@@ -12,6 +12,6 @@ export { planForEvent, PLAN_CAUTION, type EventPlan, type PlanProgress, type Pla
 export { planDocument, cheapestPerLeadTime, type PlanDocument, type PlanProposalJson, type PlanTradeJson } from './json.js';
 export type { RescreenApproach } from './approaches.js';
 export { planInputs, spacecraftCommand, type PlanInputs } from './inputs.js';
-export { rescreenTrajectory, radiusBandOfGrid, type RescreenInput, type RescreenOutcome } from './rescreen.js';
+export { rescreenTrajectory, type RescreenInput, type RescreenOutcome } from './rescreen.js';
 export { planOemText, planOpmText, OEM_STEP_S } from './files.js';
 export { planSummaryToJson, planCell } from './summary.js';

@@ -118,7 +118,7 @@ export async function planForEvent(db: KeepclearDb, eventId: string, req: PlanRe
     spacecraft: inputs.spacecraft,
     drag: dragFromBstar(inputs.primarySet.bstar),
     verificationEnd: inputs.windowEnd,
-    secondaryPeriodS: 86_400 / inputs.secondarySet.meanMotion,
+    secondaryPeriodS: 86_400 / inputs.secondarySet.meanMotionRevPerDay,
     ...(req.leadTimesS ? { leadTimesS: req.leadTimesS } : {}),
     ...(req.directions ? { directions: req.directions } : {}),
     ...(req.earliestBurn !== undefined ? { earliestBurn: req.earliestBurn } : {}),
@@ -146,8 +146,8 @@ export async function planForEvent(db: KeepclearDb, eventId: string, req: PlanRe
       ...(req.signal ? { signal: req.signal } : {}),
       onProgress: (done, total) => req.onProgress?.({ phase: 'rescreen', done, total }),
     });
-    const periods = new Map(catalogue.map((c) => [c.objectId, 1440 / c.meanMotion]));
-    periods.set(event.primary, 1440 / inputs.primarySet.meanMotion);
+    const periods = new Map(catalogue.map((c) => [c.objectId, 1440 / c.meanMotionRevPerDay]));
+    periods.set(event.primary, 1440 / inputs.primarySet.meanMotionRevPerDay);
     const compareRun = inputs.run && inputs.run.kind !== 'cdm' ? inputs.run : null;
     const risk = new RiskContext(db);
     const approaches = classifyApproaches(

@@ -18,8 +18,9 @@ interface DemoOptions {
  * `keepclear demo [--out DIR]`: the invented operator's three weeks (core/synthetic/demoWeeks.ts)
  * replayed as a weekly job would run them — each week's received messages, fleet, catalogue and
  * history written as files and imported, the fleet screened, the events linked into series —
- * then a report folder (the last run's report with its plots and what changed, and one report
- * per event in the most urgent tier present, each with its series' trend) and a short summary.
+ * then a report folder (the last run's report with its plots and what changed, one report per
+ * event in the most urgent tier present, and one per event above the lowest tier whose series was
+ * seen before — each with its series' trend) and a short summary.
  */
 export default defineCommand<DemoOptions>({
   name: 'demo',
@@ -113,6 +114,16 @@ export default defineCommand<DemoOptions>({
         await writeReport(db, { event: e.id }, path);
         eventReports.push(path);
       }
+      // Also the events above the lowest tier whose series was seen before: their trend has a story.
+      const lowest = TIER_ORDER[TIER_ORDER.length - 1];
+      const trendReports: string[] = [];
+      for (const e of events) {
+        if (!e.seriesId || !e.risk || e.risk.tier === lowest || e.risk.tier === urgent) continue;
+        if (eventsOfSeries(db, e.seriesId).length < 2) continue;
+        const path = join(reportDir, `event-${e.id}.html`);
+        await writeReport(db, { event: e.id }, path);
+        trendReports.push(path);
+      }
       const ids = new Set(events.flatMap((e) => (e.seriesId ? [e.seriesId] : [])));
       for (const s of listSeries(db, { states: ['no-longer-predicted'] })) ids.add(s.id);
 
@@ -137,12 +148,15 @@ export default defineCommand<DemoOptions>({
           ...(urgent
             ? [`  ${eventReports.length} event report(s), tier ${TIERS[urgent].label}: ${eventReports.map((p) => relative(reportDir, p)).join(', ')}`]
             : ['  no event above the lowest tier: no event reports']),
+          ...(trendReports.length
+            ? [`  ${trendReports.length} more event report(s), seen before (their series' trend): ${trendReports.map((p) => relative(reportDir, p)).join(', ')}`]
+            : []),
           `Database: ${dbPath}`,
           `Inputs:   ${join(dir, 'week-*')} (catalogues, fleet, history, received CDMs)`,
           `Done in ${((performance.now() - t0) / 1000).toFixed(1)} s.`,
         ], undefined, DEMO_SUMMARY_ROWS),
       );
-      writeFileSync(join(reportDir, 'README.txt'), `Keepclear demo reports for ${demo.operator.name} (synthetic catalogue; invented operator).\nrun-${last.id}.html: the week's run report. event-*.html: the events of tier ${urgent ? TIERS[urgent].label : '—'}.\n`);
+      writeFileSync(join(reportDir, 'README.txt'), `Keepclear demo reports for ${demo.operator.name} (synthetic catalogue; invented operator).\nrun-${last.id}.html: the week's run report. event-*.html: the events of tier ${urgent ? TIERS[urgent].label : '—'}, and those above ${TIERS[lowest!].label} seen before (with their series' trend).\n`);
       return 0;
     } finally {
       bar.stop();

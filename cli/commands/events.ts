@@ -79,6 +79,10 @@ export default defineCommand<EventsOptions>({
       }
       if (o.json !== '-') {
         if (run) process.stdout.write(`run ${run.id} (${run.kind}, ${run.status}): ${run.eventCount ?? 0} event(s)\n`);
+        if (run) {
+          const { describeEphemeris } = await import('../../app/ephemerisText.js');
+          for (const e of runEphemerides(db, run.id)) process.stdout.write(`primary ${e.objectId}: ephemeris: ${describeEphemeris(e)}\n`);
+        }
         const ids = new Set(events.flatMap((e) => (e.seriesId ? [e.seriesId] : [])));
         const more = ids.size > 0 ? [`${seriesCounts(countByState(db, ids))} (keepclear events --series ID shows one)`] : [];
         const cells = new Map([...plans].map(([id, p]) => [id, planCell(p)]));

@@ -20,7 +20,7 @@ export interface ElementSet {
   readonly classification: string;
   readonly epoch: Instant;
   /** rev/day */
-  readonly meanMotion: number;
+  readonly meanMotionRevPerDay: number;
   readonly eccentricity: number;
   readonly inclinationDeg: number;
   readonly raanDeg: number;

@@ -43,7 +43,7 @@ export const periodOfMeanMotion = (nRevPerDay: number): Seconds => seconds(SECON
 export function sgp4RecoveredMeanElements(es: ElementSet): { noRadPerMin: number; aEarthRadii: number } {
   // xke = √(μ/R³) in Earth radii^{3/2} per minute.
   const xke = 60 / Math.sqrt((R_EARTH_WGS72 * R_EARTH_WGS72 * R_EARTH_WGS72) / MU_EARTH_WGS72);
-  const noKozai = (es.meanMotion * TWO_PI) / 1440;
+  const noKozai = (es.meanMotionRevPerDay * TWO_PI) / 1440;
   const e2 = es.eccentricity * es.eccentricity;
   const omeosq = 1 - e2;
   const cosio = Math.cos((es.inclinationDeg * Math.PI) / 180);

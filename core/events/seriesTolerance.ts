@@ -103,8 +103,8 @@ function objectView(id: string, state: StateArray, epoch: Instant, dataTime: Ins
   // The data cannot be newer than its creation: a message without an OD epoch dates from its
   // CREATION_DATE, not from its TCA.
   const spanDays = Math.max(0, (tca - Math.min(epoch, dataTime)) / MS_PER_DAY);
-  const meanMotion = orbit.periodS > 0 ? SECONDS_PER_DAY / orbit.periodS : 15; // rev/day
-  const row = DEFAULT_COVARIANCE_TABLE[regimeOf({ meanMotion, eccentricity: Math.min(orbit.e, 0.99) })];
+  const meanMotionRevPerDay = orbit.periodS > 0 ? SECONDS_PER_DAY / orbit.periodS : 15; // rev/day
+  const row = DEFAULT_COVARIANCE_TABLE[regimeOf({ meanMotionRevPerDay, eccentricity: Math.min(orbit.e, 0.99) })];
   return {
     id,
     spanDays,

@@ -10,7 +10,7 @@ import { KeepclearError } from '../errors.js';
 import type { OpmMessage } from '../formats/opm/opmModel.js';
 import type { StateArray } from '../events/index.js';
 import type { Instant } from '../time/instant.js';
-import { vec3, type Frame, type Km, type KmPerS, type StateVector } from '../units.js';
+import { vec3, type Frame, type Km, type KmS, type StateVector } from '../units.js';
 import type { ImpulsiveBurn } from './burn.js';
 
 export interface BurnOpmInput {
@@ -31,7 +31,7 @@ export interface BurnOpmInput {
 
 const teme = (s: StateArray): StateVector<'TEME'> => ({
   r: vec3<'TEME', Km>(s[0], s[1], s[2]),
-  v: vec3<'TEME', KmPerS>(s[3], s[4], s[5]),
+  v: vec3<'TEME', KmS>(s[3], s[4], s[5]),
 });
 
 export function burnOpm(input: BurnOpmInput): OpmMessage {
@@ -74,7 +74,7 @@ export function opmStateTeme(m: OpmMessage): StateArray {
     throw new KeepclearError('BAD_ARGUMENT', `OPM of ${m.objectName}: CENTER_NAME ${m.centerName}, Keepclear handles EARTH only`);
   const s = <F extends Frame>(): StateVector<F> => ({
     r: vec3<F, Km>(...m.positionKm),
-    v: vec3<F, KmPerS>(...m.velocityKmS),
+    v: vec3<F, KmS>(...m.velocityKmS),
   });
   let out: StateVector<'TEME'>;
   switch (m.refFrame.toUpperCase()) {

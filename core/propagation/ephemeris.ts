@@ -11,7 +11,7 @@ import type { OemCovariance, Oem, OemSegment } from '../formats/oem/model.js';
 import { needsState, positionCovarianceRtnM2 } from '../formats/oem/covariance.js';
 import type { Matrix } from '../math/linalg.js';
 import { toIso, type Instant } from '../time/instant.js';
-import { vec3, type Km, type KmPerS, type StateVector } from '../units.js';
+import { vec3, type Km, type KmS, type StateVector } from '../units.js';
 import { MAX_WINDOW_NODES, nodesFor, WindowInterpolator } from './interpolation.js';
 import type { FailureReason, Trajectory } from './trajectory.js';
 
@@ -186,7 +186,7 @@ export class EphemerisTrajectory implements Trajectory {
     const buf = new Float64Array(6);
     const failure = this.stateInto(t, buf, 0);
     if (failure) return failure;
-    return { r: vec3<'TEME', Km>(buf[0]!, buf[1]!, buf[2]!), v: vec3<'TEME', KmPerS>(buf[3]!, buf[4]!, buf[5]!) };
+    return { r: vec3<'TEME', Km>(buf[0]!, buf[1]!, buf[2]!), v: vec3<'TEME', KmS>(buf[3]!, buf[4]!, buf[5]!) };
   }
 
   /**
@@ -209,7 +209,7 @@ export class EphemerisTrajectory implements Trajectory {
         const buf = new Float64Array(6);
         // load.ts keeps only blocks whose epoch lies within their segment's nodes.
         this.evaluate(this.prepared[seg]!, cov.epoch, buf, 0);
-        state = { r: vec3<'TEME', Km>(buf[0]!, buf[1]!, buf[2]!), v: vec3<'TEME', KmPerS>(buf[3]!, buf[4]!, buf[5]!) };
+        state = { r: vec3<'TEME', Km>(buf[0]!, buf[1]!, buf[2]!), v: vec3<'TEME', KmS>(buf[3]!, buf[4]!, buf[5]!) };
       }
       rtnM2 = positionCovarianceRtnM2(cov, state);
       this.rtnCache.set(cov, rtnM2);

@@ -14,9 +14,10 @@
  * the fastest angular rate (the rate at perigee) and R the radius. SAMPLE_TURN_RAD = 0.05 rad
  * per step gives 2.3e-17·R; twice-per-orbit terms of SGP4 (amplitude ≤ ~20 km, frequency 2ω)
  * add ≤ 2.4e-4·0.1¹⁰·20 km ≈ 5e-17 km. Windows at the ends of a piece are off-centre (Π up to
- * ~4.2e4 in the end interval, 48× the middle), and a piece that ends at a break extrapolates up
- * to one step past its last node (Π ≤ 10!, so ≤ (h·ω)¹⁰·R ≈ 1e-13·R: 0.7 µm in LEO, 4 µm at
- * GEO). Near the perigee of an eccentric orbit the high derivatives grow faster than ω_p¹⁰·r_p
+ * ~4.2e4 in the end interval, 48× the middle), and a piece that ends at a break or at the end
+ * of a source's span extrapolates up to one step past its last node (Π ≤ 10!, so
+ * ≤ (h·ω)¹⁰·R ≈ 1e-13·R: 0.7 µm in LEO, 4 µm at GEO), plus at most one more step at a span edge
+ * (EDGE_SERVE_MAX_MS; Π ≤ 11!, 11× more: ≤ 10 µm in LEO). Near the perigee of an eccentric orbit the high derivatives grow faster than ω_p¹⁰·r_p
  * (measured for an exact Kepler orbit with e = 0.7: 0.03 mm, 0.3 µm/s), and SGP4's deep-space
  * resonance integration is itself only piecewise smooth (GEO: 0.04 mm measured). Stated bounds,
  * asserted by test/sampled-trajectory.test.ts against an exact Kepler orbit (e = 0.001, 0.7)
@@ -46,6 +47,12 @@ const MIN_STEP_MS = 1_000;
 const MAX_STEP_MS = 300_000;
 /** Nodes per interpolation window (degree 9). */
 export const SAMPLE_NODES = 10;
+/**
+ * Most a table serves past its first or last node at a span edge (ms), and never more than one
+ * step of that piece: there the extrapolation error stays ≤ (h·ω)¹⁰·R, as for a piece ending at
+ * a break. 20 s covers refinement's range-rate differencing (≤ 2 × 8 s past a window edge).
+ */
+export const EDGE_SERVE_MAX_MS = 20_000;
 /** Last node of a piece this far before the break that ends it (ms). */
 const BREAK_EDGE_MS = 1;
 /** Stated bounds of the interpolation error (km, km/s): 0.1 mm and 1 µm/s (see above). */
@@ -121,7 +128,17 @@ export function sampleTrajectory(
   traj: Trajectory,
   from: Instant,
   to: Instant,
-  options: { readonly stepMs?: number; readonly buffer?: Float64Array } = {},
+  options: {
+    readonly stepMs?: number;
+    readonly buffer?: Float64Array;
+    /**
+     * Serve this far (ms) before the first and after the last node when the source ends there by
+     * its span (not by a failure): refinement differences the range rate a few seconds past the
+     * window edges, and an ephemeris that covers exactly the window must not fail there. The
+     * end windows extrapolate by at most this much (≤ EDGE_SERVE_MAX_MS: within the error bound).
+     */
+    readonly edgeMs?: number;
+  } = {},
 ): SampleTable {
   const scratch = new Float64Array(6);
   let stepMs = options.stepMs;
@@ -129,16 +146,22 @@ export function sampleTrajectory(
     const f = traj.stateInto(from, scratch, 0);
     stepMs = f ? MIN_STEP_MS : sampleStepMs(scratch);
   }
-  const breaks = (traj.breaks ?? []).filter((b) => b > from && b < to).sort((a, b) => a - b);
+  // A source with a bounded span (an owner ephemeris) is sampled only inside it: nothing before
+  // its start, and its end is treated like a break (nodes stop at or before it; the last window
+  // serves the < 1 step left), never sampled past it.
+  const lo = traj.span && traj.span.start > from ? Math.ceil(traj.span.start) : (from as number);
+  const hi = traj.span && traj.span.end < to ? Math.floor(traj.span.end) : (to as number);
+  const hardEnd = hi < to;
+  const breaks = (traj.breaks ?? []).filter((b) => b > lo && b < hi).sort((a, b) => a - b);
   const values = options.buffer ?? new Float64Array(sampleCapacity(from, to, stepMs, breaks.length));
-  const bounds = [from as number, ...breaks, to as number];
+  const bounds = [lo, ...breaks, hi];
   const pieces: SamplePiece[] = [];
   let node = 0, failure: FailureReason | null = null;
   let vMax = 0, rMin = Infinity, rMax = 0, aMax = 0;
   const h = Math.max(1, Math.round(stepMs));
   for (let p = 0; p + 1 < bounds.length && !failure; p++) {
-    const a = bounds[p]!, isLast = p + 2 === bounds.length;
-    const b = isLast ? bounds[p + 1]! : bounds[p + 1]! - BREAK_EDGE_MS;
+    const a = bounds[p]!, isLast = p + 2 === bounds.length && !hardEnd;
+    const b = isLast || p + 2 === bounds.length ? bounds[p + 1]! : bounds[p + 1]! - BREAK_EDGE_MS;
     const t0 = Math.ceil(a);
     if (!(b > t0)) continue;
     // A short piece gets a shorter (whole-ms) step, so that it still has a full window.
@@ -155,7 +178,10 @@ export function sampleTrajectory(
       if (off + 6 > values.length) throw new RangeError(`sample buffer too small for ${traj.objectId}`);
       const f = traj.stateInto(t as Instant, values, off);
       if (f) {
-        failure = f;
+        // The last piece's final node lies past the requested end; a source that stops exactly
+        // there (an ephemeris covering just this span) has not failed: that piece serves up to
+        // the end from its last window.
+        if (!(isLast && t > b && k === n)) failure = f;
         break;
       }
       const r = Math.hypot(values[off]!, values[off + 1]!, values[off + 2]!);
@@ -171,8 +197,15 @@ export function sampleTrajectory(
     // A piece needs a full window; fewer good nodes (failure right away) serve nothing.
     if (count >= SAMPLE_NODES) {
       const lastNode = t0 + (count - 1) * hp;
-      pieces.push({ from: a, t0, stepMs: hp, count, first, until: failure ? lastNode : isLast ? Math.min(lastNode, b) : bounds[p + 1]! });
+      pieces.push({ from: a, t0, stepMs: hp, count, first, until: failure ? lastNode : isLast ? b : bounds[p + 1]! });
     } else node = first;
+  }
+  const edge = Math.min(options.edgeMs ?? 0, EDGE_SERVE_MAX_MS);
+  if (edge > 0 && pieces.length > 0) {
+    const first = pieces[0]!;
+    pieces[0] = { ...first, from: first.from - Math.min(edge, first.stepMs) };
+    const last = pieces[pieces.length - 1]!;
+    if (!failure) pieces[pieces.length - 1] = { ...last, until: last.until + Math.min(edge, last.stepMs) };
   }
   // Between nodes (half a step from the nearest), |r| can pass an extreme by ≤ ½·a·(h/2)² and
   // |v| can grow by ≤ a·h/2; a is bounded by the larger of μ/r² and v²/r seen at the nodes.

@@ -79,7 +79,7 @@ export function makeSatrec(es: ElementSet): SatRec {
     ecco: es.eccentricity,
     argpo: es.argPerigeeDeg * DEG,
     mo: es.meanAnomalyDeg * DEG,
-    no: es.meanMotion / XPDOTP,
+    no: es.meanMotionRevPerDay / XPDOTP,
     jdsatepoch,
   };
   sgp4init(rec, {
@@ -105,7 +105,7 @@ export function makeSatrec(es: ElementSet): SatRec {
  */
 function domainFailure(es: ElementSet): FailureReason | null {
   if (!(es.eccentricity >= 0 && es.eccentricity < 1)) return 'bad-mean-eccentricity';
-  if (!(es.meanMotion > 0)) return 'negative-mean-motion';
+  if (!(es.meanMotionRevPerDay > 0)) return 'negative-mean-motion';
   const fin = Number.isFinite; // written out: runs once per object of a run (no array)
   return fin(es.inclinationDeg) && fin(es.raanDeg) && fin(es.argPerigeeDeg) && fin(es.meanAnomalyDeg) && fin(es.bstar) && fin(es.epoch)
     ? null

@@ -10,14 +10,14 @@ export const LEO_APOGEE_KM = 2000;
 export const HEO_MIN_ECCENTRICITY = 0.25;
 export const GEO_MEAN_MOTION_RANGE: readonly [number, number] = [0.9, 1.1];
 
-export function regimeOf(es: Pick<ElementSet, 'meanMotion' | 'eccentricity'>): Regime {
-  const n = (es.meanMotion * 2 * Math.PI) / 86400; // rad/s
+export function regimeOf(es: Pick<ElementSet, 'meanMotionRevPerDay' | 'eccentricity'>): Regime {
+  const n = (es.meanMotionRevPerDay * 2 * Math.PI) / 86400; // rad/s
   const a = Math.cbrt(MU_EARTH_WGS72 / (n * n));
   const perigee = a * (1 - es.eccentricity) - R_EARTH_WGS72;
   const apogee = a * (1 + es.eccentricity) - R_EARTH_WGS72;
   if (es.eccentricity >= HEO_MIN_ECCENTRICITY) return 'HEO';
   if (apogee < LEO_APOGEE_KM) return perigee < LEO_LOW_PERIGEE_KM ? 'LEO-low' : 'LEO';
-  if (es.meanMotion >= GEO_MEAN_MOTION_RANGE[0] && es.meanMotion <= GEO_MEAN_MOTION_RANGE[1]) return 'GEO';
+  if (es.meanMotionRevPerDay >= GEO_MEAN_MOTION_RANGE[0] && es.meanMotionRevPerDay <= GEO_MEAN_MOTION_RANGE[1]) return 'GEO';
   return 'MEO';
 }
 

@@ -53,7 +53,7 @@ export function covarianceFromHistory(sets: readonly ElementSet[], at: Instant):
   const older = sets.filter((s) => s.epoch < newest.epoch);
   if (older.length < MIN_OLDER_SETS) return null;
   const ref = new Sgp4Trajectory(newest);
-  const periodMs = MS_PER_DAY / newest.meanMotion;
+  const periodMs = MS_PER_DAY / newest.meanMotionRevPerDay;
   const times = Array.from({ length: HISTORY_SAMPLE_POINTS }, (_, k) => (newest.epoch + (k * periodMs) / HISTORY_SAMPLE_POINTS) as Instant);
   const refStates = new Float64Array(6 * times.length);
   for (let k = 0; k < times.length; k++) if (ref.stateInto(times[k]!, refStates, 6 * k)) return null;

@@ -14,7 +14,9 @@
  * Higham 1988 nearest PSD), `extension-dropped` (rows beyond 6 spoil an otherwise usable 6×6,
  * which is kept), `not-psd` (indefinite beyond rounding, negative variance, non-finite or not
  * symmetric), `zero` (the position block is all zero: it states no uncertainty at all — not a
- * covariance a Pc can use, and almost always a producer's placeholder). The last two are refused.
+ * covariance a Pc can use; a producer's placeholder for "none"). The last two are refused: the
+ * assessment then uses another source or maximum Pc; the CDM reader refuses a message with a
+ * `not-psd` covariance and keeps one with a `zero` covariance, with a note.
  */
 import { nearestPsd, symmetricEigen, type Matrix } from '../math/linalg.js';
 
@@ -152,7 +154,7 @@ export function judgeCovariance(c: Matrix, who: string, name: TermNamer = rtnTer
     return {
       status: 'zero',
       usable: null,
-      note: `${who} covariance has an all-zero position block: it states no uncertainty, so no Pc can be computed from it`,
+      note: `${who} covariance has an all-zero position block: it states no uncertainty and is not used for Pc`,
     };
   for (let i = 0; i < n; i++)
     for (let j = 0; j < i; j++) {

@@ -64,7 +64,7 @@ export interface EncounterScene {
   };
   readonly primary: SceneObject;
   readonly secondary: SceneObject;
-  /** catalogue positions at TCA, flat x y z, TEME km (objects whose propagation failed are left out) */
+  /** catalogue positions at TCA, flat x y z, TEME km rounded to the metre (objects whose propagation failed are left out) */
   readonly catalogue: { readonly count: number; readonly positionsTemeKm: readonly number[]; readonly failed: number };
   /** the scrubber's range, seconds from TCA */
   readonly timeRangeS: readonly [number, number];
@@ -174,6 +174,8 @@ function ellipsoidOrNull(cov: Matrix3 | null | undefined): CovarianceEllipsoid |
   }
 }
 
+const toMetre = (km: number): number => Math.round(km * 1000) / 1000;
+
 const isTier = (t: unknown): t is TierId => typeof t === 'string' && (TIER_ORDER as readonly string[]).includes(t);
 
 export function buildEncounterScene(input: EncounterSceneInput): EncounterScene {
@@ -215,7 +217,9 @@ export function buildEncounterScene(input: EncounterSceneInput): EncounterScene 
   let failed = 0;
   const cb = new Float64Array(6);
   for (const tr of input.catalogue ?? []) {
-    if (state6(tr, tca, cb)) cat.push(cb[0]!, cb[1]!, cb[2]!);
+    // Rounded to the metre: points on an Earth-sized view need no more, and the scene crosses
+    // the bridge as JSON (30,000 × 3 numbers; full doubles would double its size).
+    if (state6(tr, tca, cb)) cat.push(toMetre(cb[0]!), toMetre(cb[1]!), toMetre(cb[2]!));
     else failed++;
   }
 

@@ -182,10 +182,10 @@ export class ScreeningSession {
 function coarseRadiusBand(o: ScreeningObject): [number, number] | null {
   const es = o.trajectory.meanElementSource?.elements;
   if (!es) return o.radiusBandKm ? [o.radiusBandKm[0], o.radiusBandKm[1]] : null;
-  if (!(es.meanMotion > 0 && es.eccentricity >= 0 && es.eccentricity < 1)) return null;
+  if (!(es.meanMotionRevPerDay > 0 && es.eccentricity >= 0 && es.eccentricity < 1)) return null;
   // Kepler's third law on the (Kozai) mean motion: differs from SGP4's recovered a by
   // O(J2) ≈ 1e-3·a, inside the pad; no SGP4 initialisation is needed for this test.
-  const nRadS = (es.meanMotion * 2 * Math.PI) / 86_400;
+  const nRadS = (es.meanMotionRevPerDay * 2 * Math.PI) / 86_400;
   const a = Math.cbrt(MU_EARTH_WGS72 / (nRadS * nRadS));
   const e = es.eccentricity;
   const pad = COARSE_RADIUS_PAD_KM + COARSE_RADIUS_PAD_FRACTION * a;

@@ -20,7 +20,7 @@ export function packSets(sets: readonly ElementSet[]): PackedSets {
   sets.forEach((s, i) => {
     const o = i * FIELDS;
     values[o] = s.epoch;
-    values[o + 1] = s.meanMotion;
+    values[o + 1] = s.meanMotionRevPerDay;
     values[o + 2] = s.eccentricity;
     values[o + 3] = s.inclinationDeg;
     values[o + 4] = s.raanDeg;
@@ -47,7 +47,7 @@ export function unpackSets(p: PackedSets): ElementSet[] {
       intlDesignator: null,
       classification: p.classifications[i] ?? 'U',
       epoch: v[o]! as Instant,
-      meanMotion: v[o + 1]!,
+      meanMotionRevPerDay: v[o + 1]!,
       eccentricity: v[o + 2]!,
       inclinationDeg: v[o + 3]!,
       raanDeg: v[o + 4]!,

@@ -10,7 +10,7 @@ import { gridPointCount, gridStepMs } from './primaryGrid.js';
 import { MODEL_MARGIN_MS, objectFromSamples, type WindowSettings } from './engine.js';
 import type { Instant } from '../time/instant.js';
 import type { Trajectory } from '../propagation/trajectory.js';
-import { sampleCapacity, sampleStepMs, sampleTrajectory } from '../propagation/sampledTrajectory.js';
+import { EDGE_SERVE_MAX_MS, sampleCapacity, sampleStepMs, sampleTrajectory } from '../propagation/sampledTrajectory.js';
 import type { FlaggedObject, ScreeningSettings } from './types.js';
 import type { Encounter } from '../events/index.js';
 import type { ScreeningWorkerApi } from './worker.js';
@@ -104,7 +104,7 @@ export async function runScreening(
   let offset = 0;
   const layout = primaries.map((id) => {
     const es = bySet.get(id);
-    const stepMs = sampledStep.get(id) ?? gridStepMs(es!.meanMotion, es!.eccentricity);
+    const stepMs = sampledStep.get(id) ?? gridStepMs(es!.meanMotionRevPerDay, es!.eccentricity);
     const count = gridPointCount(settings.start, settings.end, stepMs);
     const l = { id, offset, count, stepMs };
     offset += count * 6;
@@ -172,15 +172,23 @@ async function inWorkers(
   }
 }
 
-/** Samples a primary over the window and its margins into a SharedArrayBuffer. */
+/**
+ * Samples a primary over the window and its margins into a SharedArrayBuffer. A source whose
+ * span ends inside the margins (an ephemeris covering just the window) is sampled over its span
+ * and served EDGE_SERVE_MAX_MS beyond it, which covers refinement's differencing at the edges.
+ */
 function sampleIntoShared(traj: Trajectory, start: Instant, end: Instant) {
-  const from = (start - SAMPLE_MARGIN_MS) as Instant, to = (end + SAMPLE_MARGIN_MS) as Instant;
+  let from = start - SAMPLE_MARGIN_MS, to = end + SAMPLE_MARGIN_MS;
+  if (traj.span) {
+    from = Math.max(from, traj.span.start);
+    to = Math.min(to, traj.span.end);
+  }
   const probe = new Float64Array(6);
   // The step follows the orbit at the window start (or the margin's start if that fails).
-  const stepMs = traj.stateInto(start, probe, 0) && traj.stateInto(from, probe, 0) ? 1000 : sampleStepMs(probe);
+  const stepMs = traj.stateInto(start, probe, 0) && traj.stateInto(from as Instant, probe, 0) ? 1000 : sampleStepMs(probe);
   const breaks = traj.breaks?.length ?? 0;
-  const buffer = new Float64Array(new SharedArrayBuffer(8 * sampleCapacity(from, to, stepMs, breaks)));
-  return sampleTrajectory(traj, from, to, { stepMs, buffer });
+  const buffer = new Float64Array(new SharedArrayBuffer(8 * sampleCapacity(from, Math.max(to, from), stepMs, breaks)));
+  return sampleTrajectory(traj, from as Instant, Math.max(to, from) as Instant, { stepMs, buffer, edgeMs: EDGE_SERVE_MAX_MS });
 }
 
 function merge(results: ChunkResult[], wallMs: number): ScreeningOutcome {

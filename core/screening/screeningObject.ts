@@ -28,8 +28,8 @@ export function objectFromElements(es: ElementSet): ScreeningObject {
     id: es.objectId,
     trajectory: new Sgp4Trajectory(es),
     epoch: es.epoch,
-    periodMin: 1440 / es.meanMotion,
-    gridStepMs: gridStepMs(es.meanMotion, es.eccentricity),
+    periodMin: 1440 / es.meanMotionRevPerDay,
+    gridStepMs: gridStepMs(es.meanMotionRevPerDay, es.eccentricity),
   };
 }
 

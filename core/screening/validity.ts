@@ -82,12 +82,12 @@ export class ValidityProbe {
 function cannotFailInWindow(o: ScreeningObject, spanMs: number): boolean {
   const es = o.trajectory.meanElementSource?.elements;
   if (!es || spanMs > SAFE_SPAN_MS) return false;
-  if (!(es.meanMotion > 0 && es.eccentricity >= 0 && es.eccentricity < SAFE_MAX_ECCENTRICITY)) return false;
+  if (!(es.meanMotionRevPerDay > 0 && es.eccentricity >= 0 && es.eccentricity < SAFE_MAX_ECCENTRICITY)) return false;
   if (!(Math.abs(es.bstar) <= SAFE_MAX_BSTAR)) return false;
   // Written out, not as an array: this runs for every object of every run (no allocation).
   const fin = Number.isFinite;
   if (!(fin(es.inclinationDeg) && fin(es.raanDeg) && fin(es.argPerigeeDeg) && fin(es.meanAnomalyDeg) && fin(es.meanMotionDot))) return false;
-  const nRadS = (es.meanMotion * 2 * Math.PI) / 86_400;
+  const nRadS = (es.meanMotionRevPerDay * 2 * Math.PI) / 86_400;
   const a = Math.cbrt(MU_EARTH_WGS72 / (nRadS * nRadS));
   return a * (1 - es.eccentricity) - R_EARTH_WGS72 >= SAFE_PERIGEE_ALT_KM;
 }

@@ -27,7 +27,7 @@ export interface CatalogUpdate {
   readonly secular: number;
 }
 
-const perigeeAltKm = (es: ElementSet): number => semiMajorAxisKm(es.meanMotion) * (1 - es.eccentricity) - RE;
+const perigeeAltKm = (es: ElementSet): number => semiMajorAxisKm(es.meanMotionRevPerDay) * (1 - es.eccentricity) - RE;
 
 /**
  * Every set re-issued `shiftMs` earlier (positive: an older catalogue) or later, each with a

@@ -7,7 +7,7 @@ import { temeToGcrf } from '../frames/teme.js';
 import { assessEncounter } from '../risk/assess.js';
 import { approachAngleDeg, relativeRtn, rtnBasis } from '../screening/geometry.js';
 import type { Instant } from '../time/instant.js';
-import { vec3, type Km, type KmPerS, type M, type MPerS } from '../units.js';
+import { vec3, type Km, type KmS, type M, type MS } from '../units.js';
 import { plantStates, type Geometry } from './plant.js';
 
 /**
@@ -68,7 +68,7 @@ function diagonalRtn(posM: readonly number[], velMps: readonly number[]): number
 }
 
 function eme2000(s: StateArray, t: Instant): { r: [number, number, number]; v: [number, number, number] } {
-  const g = gcrfToEme2000(temeToGcrf({ r: vec3<'TEME', Km>(s[0], s[1], s[2]), v: vec3<'TEME', KmPerS>(s[3], s[4], s[5]) }, t));
+  const g = gcrfToEme2000(temeToGcrf({ r: vec3<'TEME', Km>(s[0], s[1], s[2]), v: vec3<'TEME', KmS>(s[3], s[4], s[5]) }, t));
   return {
     r: [roundTo(g.r[0], 6), roundTo(g.r[1], 6), roundTo(g.r[2], 6)],
     v: [roundTo(g.v[0], 9), roundTo(g.v[1], 9), roundTo(g.v[2], 9)],
@@ -89,7 +89,7 @@ function object(
     dataComments: [],
     od: { ...info(), timeLastobEnd: lastObEnd },
     additional: { ...info(), areaPc },
-    state: { ...info(), r: vec3<'EME2000', Km>(...e.r), v: vec3<'EME2000', KmPerS>(...e.v) },
+    state: { ...info(), r: vec3<'EME2000', Km>(...e.r), v: vec3<'EME2000', KmS>(...e.v) },
     covariance: { ...info(), dimension: 6, matrix: cov, status: 'psd', usable: cov },
   };
 }
@@ -128,10 +128,10 @@ export function buildDemoCdm(spec: DemoCdmSpec): DemoCdm {
       ...info(),
       tca: spec.tca,
       missDistance: roundTo(missKm * 1000, 3) as M,
-      relativeSpeed: roundTo(st.relativeSpeedKmS * 1000, 3) as MPerS,
+      relativeSpeed: roundTo(st.relativeSpeedKmS * 1000, 3) as MS,
       relativePositionR: rtnM[0] as M, relativePositionT: rtnM[1] as M, relativePositionN: rtnM[2] as M,
-      relativeVelocityR: roundTo(along(R), 4) as MPerS, relativeVelocityT: roundTo(along(T), 4) as MPerS,
-      relativeVelocityN: roundTo(along(N), 4) as MPerS,
+      relativeVelocityR: roundTo(along(R), 4) as MS, relativeVelocityT: roundTo(along(T), 4) as MS,
+      relativeVelocityN: roundTo(along(N), 4) as MS,
       startScreenPeriod: spec.created,
       stopScreenPeriod: (spec.created + 7 * 86_400_000) as Instant,
       screenVolumeFrame: 'RTN', screenVolumeShape: 'ELLIPSOID',

@@ -71,14 +71,14 @@ export const SYNTHETIC_SOURCE = { file: 'synthetic', format: 'SYNTHETIC' } as co
 /** Draft → element set, rounded to the precision a TLE carries so exports lose nothing. */
 export function draftToElementSet(d: Draft, objectId: string, line: number, rng: Rng): ElementSet {
   const perigeeAlt = d.a * (1 - d.e) - RE;
-  const meanMotion = round(meanMotionRevPerDay(d.a), 8);
+  const nRevPerDay = round(meanMotionRevPerDay(d.a), 8);
   return {
     objectId,
     name: d.name,
     intlDesignator: null,
     classification: 'U',
     epoch: d.epoch,
-    meanMotion,
+    meanMotionRevPerDay: nRevPerDay,
     eccentricity: round(d.e, 7),
     inclinationDeg: round(d.i * RAD_TO_DEG, 4),
     raanDeg: round(wrapTwoPi(d.raan) * RAD_TO_DEG, 4) % 360,
@@ -88,7 +88,7 @@ export function draftToElementSet(d: Draft, objectId: string, line: number, rng:
     meanMotionDot: round(meanMotionDotHalf(d.bstar, perigeeAlt), 8),
     meanMotionDdot: 0,
     elementSetNo: 1 + rng.int(999),
-    revAtEpoch: rng.int(Math.max(1, Math.floor(meanMotion * 3000))) % 100000,
+    revAtEpoch: rng.int(Math.max(1, Math.floor(nRevPerDay * 3000))) % 100000,
     ephemerisType: 0,
     source: { ...SYNTHETIC_SOURCE, line },
   };
@@ -101,7 +101,7 @@ export function draftToElementSet(d: Draft, objectId: string, line: number, rng:
 export function roundToTlePrecision(es: ElementSet): ElementSet {
   return {
     ...es,
-    meanMotion: round(es.meanMotion, 8),
+    meanMotionRevPerDay: round(es.meanMotionRevPerDay, 8),
     eccentricity: round(es.eccentricity, 7),
     inclinationDeg: round(es.inclinationDeg, 4),
     raanDeg: round(es.raanDeg, 4) % 360,

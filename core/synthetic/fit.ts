@@ -53,7 +53,7 @@ export function elementSetOf(x: Equinoctial, epoch: Instant, template: Template)
     source: { ...SYNTHETIC_SOURCE, line: 0 },
     ...template,
     epoch,
-    meanMotion: n,
+    meanMotionRevPerDay: n,
     eccentricity: e,
     inclinationDeg: 2 * Math.atan(tanHalfI) * RAD,
     raanDeg: wrapTwoPi(raan) * RAD,

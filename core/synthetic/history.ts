@@ -39,7 +39,7 @@ export function buildHistory(newest: ElementSet, rng: Rng, opts: HistoryOptions 
         ...newest,
         epoch,
         elementSetNo: Math.max(1, newest.elementSetNo - k),
-        revAtEpoch: Math.max(0, Math.round(newest.revAtEpoch - ((newest.epoch - epoch) / 86_400_000) * newest.meanMotion)),
+        revAtEpoch: Math.max(0, Math.round(newest.revAtEpoch - ((newest.epoch - epoch) / 86_400_000) * newest.meanMotionRevPerDay)),
       }),
     );
   }

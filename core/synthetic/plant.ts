@@ -113,7 +113,7 @@ export function plantEncounter(spec: PlantSpec): Planted {
     epoch: spec.fitEpoch,
     bstar: spec.bstar,
   });
-  const perigeeAlt = semiMajorAxisKm(secondary.meanMotion) * (1 - secondary.eccentricity) - RE;
+  const perigeeAlt = semiMajorAxisKm(secondary.meanMotionRevPerDay) * (1 - secondary.eccentricity) - RE;
   if (perigeeAlt < MIN_SECONDARY_PERIGEE_ALT_KM)
     throw new KeepclearError('INTERNAL', `planted secondary ${spec.secondaryId} has perigee at ${perigeeAlt.toFixed(0)} km`);
   return { secondary, relativeSpeedKmS: states.relativeSpeedKmS, approachAngleDeg: states.approachAngleDeg };

@@ -53,7 +53,7 @@ function secularShift(source: ElementSet, rec: SatRec, epoch: Instant): Equinoct
     m += rec.dmdt * t;
   }
   // Drag shrinks a as tempa² (SGP4), so n grows as tempa⁻³ (Kepler's third law).
-  const n = source.meanMotion / (tempa * tempa * tempa);
+  const n = source.meanMotionRevPerDay / (tempa * tempa * tempa);
   return toEquinoctial(n, Math.min(Math.max(e, 0), 0.99), i, node, argp, m);
 }
 
@@ -78,7 +78,7 @@ function withElements(base: ElementSet, x: Equinoctial): ElementSet {
   return {
     objectId: base.objectId, name: base.name, intlDesignator: base.intlDesignator,
     classification: base.classification, epoch: base.epoch,
-    meanMotion: n, eccentricity: e, inclinationDeg: 2 * Math.atan(tanHalfI) * RAD,
+    meanMotionRevPerDay: n, eccentricity: e, inclinationDeg: 2 * Math.atan(tanHalfI) * RAD,
     raanDeg: wrapTwoPi(raan) * RAD, argPerigeeDeg: wrapTwoPi(lonPerigee - raan) * RAD,
     meanAnomalyDeg: wrapTwoPi(lambda - lonPerigee) * RAD,
     bstar: base.bstar, meanMotionDot: base.meanMotionDot, meanMotionDdot: base.meanMotionDdot,
@@ -123,7 +123,7 @@ export function reEpochElementSet(source: ElementSet, epoch: Instant, opts: ReEp
     ...source,
     epoch,
     elementSetNo: Math.max(1, (source.elementSetNo + Math.round(days)) % 10_000),
-    revAtEpoch: Math.max(0, Math.round(source.revAtEpoch + days * source.meanMotion) % 100_000),
+    revAtEpoch: Math.max(0, Math.round(source.revAtEpoch + days * source.meanMotionRevPerDay) % 100_000),
   };
   const round = opts.roundToTle !== false;
   const finish = (es: ElementSet): ElementSet => (round ? roundToTlePrecision(es) : es);

@@ -5,16 +5,13 @@
  * with sidereal time so its meridians sit where they are at that instant.
  */
 import {
-  AmbientLight,
   BufferGeometry,
-  DirectionalLight,
   Float32BufferAttribute,
   Group,
   Line,
   LineBasicMaterial,
   LineSegments,
   Mesh,
-  MeshLambertMaterial,
   Points,
   PointsMaterial,
   SphereGeometry,
@@ -22,6 +19,7 @@ import {
 } from 'three';
 import type { EncounterScene, SceneObject } from '../../core/scene/encounterScene.js';
 import { trackPointAt } from '../../core/scene/track.js';
+import { shadedMaterial } from './materials.js';
 import { Panel, type PanelOptions } from './panel.js';
 import {
   CATALOGUE_COLOUR,
@@ -41,6 +39,13 @@ const GRATICULE_LIFT = 1.002;
 /** Catalogue point size in px (not attenuated: a distant object stays visible). */
 const CATALOGUE_POINT_PX = 2;
 const MARKER_PX = 14;
+
+/**
+ * Segments around the drawn Earth: at a 300-px radius the silhouette's chord sag is
+ * r(1 − cos(π/64)) ≈ 0.4 px. (96 cost twice the frame time on software rendering for nothing visible.)
+ */
+const EARTH_SEGMENTS = 64;
+
 
 /**
  * Share of the catalogue drawn while the user drags (the whole catalogue returns when the drag
@@ -132,7 +137,7 @@ export class EarthPanel {
     const re = data.earth.equatorialRadiusKm;
     const polar = 1 - data.earth.flattening;
 
-    const sea = new Mesh(new SphereGeometry(re, 96, 64), new MeshLambertMaterial({ color: EARTH_COLOUR }));
+    const sea = new Mesh(new SphereGeometry(re, EARTH_SEGMENTS, Math.round((EARTH_SEGMENTS * 2) / 3)), shadedMaterial(EARTH_COLOUR));
     // SphereGeometry's poles are on y; the Earth's axis is TEME z.
     sea.rotation.x = Math.PI / 2;
     sea.scale.set(1, polar, 1);
@@ -144,11 +149,6 @@ export class EarthPanel {
     );
     scene.add(this.earth);
 
-    // Lit from over the viewer's shoulder: the light rides with the camera.
-    const sun = new DirectionalLight(0xffffff, 2.2);
-    sun.position.set(0.5, 0.6, 1);
-    this.panel.camera.add(sun);
-    scene.add(this.panel.camera, new AmbientLight(0xffffff, 0.55));
 
     const cat = new BufferGeometry();
     cat.setAttribute('position', new Float32BufferAttribute(shuffledPoints(data.catalogue.positionsTemeKm), 3));

@@ -36,8 +36,14 @@ export interface EncounterView {
   inspect(): { readonly timeS: number; readonly earth: { primary: [number, number]; secondary: [number, number] }; readonly rtn: { secondary: [number, number] } };
 }
 
-/** Below this width (px) the panels stack. */
-const STACK_BELOW_PX = 760;
+/**
+ * Side by side or stacked: whichever gives panels closer to square (|ln aspect| smaller), since a
+ * globe and a tumbling ellipsoid need both directions. Ties stack.
+ */
+export function stackPanels(width: number, height: number): boolean {
+  if (!(width > 0 && height > 0)) return false;
+  return Math.abs(Math.log(width / (height / 2))) <= Math.abs(Math.log(width / 2 / height));
+}
 const SCRUB_STEP_S = 0.5;
 
 const pc = (x: number | null): string => (x === null ? 'no Pc' : x < 1e-10 ? 'Pc < 1e-10' : `Pc ${x.toExponential(1)}`);
@@ -139,7 +145,7 @@ export function mountEncounterView(host: HTMLElement, scene: EncounterScene, opt
   toTca.addEventListener('click', onTca);
 
   const layout = (): void => {
-    panels.style.flexDirection = root.clientWidth < STACK_BELOW_PX ? 'column' : 'row';
+    panels.style.flexDirection = stackPanels(panels.clientWidth, panels.clientHeight) ? 'column' : 'row';
   };
   const observer = new ResizeObserver(layout);
   observer.observe(root);

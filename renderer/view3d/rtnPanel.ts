@@ -8,16 +8,13 @@
  * so orbits and ellipsoids keep their handedness.
  */
 import {
-  AmbientLight,
   BufferGeometry,
-  DirectionalLight,
   Float32BufferAttribute,
   Group,
   Line,
   LineBasicMaterial,
   LineLoop,
   Mesh,
-  MeshLambertMaterial,
   Points,
   PointsMaterial,
   SphereGeometry,
@@ -26,6 +23,7 @@ import {
 import type { CovarianceEllipsoid, Vec3n } from '../../core/scene/ellipsoid.js';
 import type { EncounterScene } from '../../core/scene/encounterScene.js';
 import { trackPointAt } from '../../core/scene/track.js';
+import { shadedMaterial } from './materials.js';
 import { Panel, type PanelOptions } from './panel.js';
 import {
   AXIS_COLOURS,
@@ -55,10 +53,7 @@ function ellipsoidGroup(e: CovarianceEllipsoid, k: number, colour: string, centr
   const [a, b, c] = e.axesRtn.map((ax) => rtnToView(ax));
   g.matrixAutoUpdate = false;
   g.matrix.makeBasis(a!, b!, c!).scale(new Vector3(k * e.sigmaM[0], k * e.sigmaM[1], k * e.sigmaM[2])).setPosition(centreM);
-  const shell = new Mesh(
-    new SphereGeometry(1, 48, 24),
-    new MeshLambertMaterial({ color: colour, transparent: true, opacity: ELLIPSOID_OPACITY, depthWrite: false }),
-  );
+  const shell = new Mesh(new SphereGeometry(1, 48, 24), shadedMaterial(colour, ELLIPSOID_OPACITY, 0.6));
   g.add(shell);
   // The three principal ellipses as rings: they carry the shape where the shell is faint.
   const ring = (i: number, j: number) => {
@@ -97,13 +92,8 @@ export class RtnPanel {
     const sColour = tierColour(data.tier);
     const tcaM = rtnToView(data.relative.tcaRtnKm, 1000);
 
-    const sun = new DirectionalLight(0xffffff, 2);
-    sun.position.set(0.4, 0.7, 1);
-    this.panel.camera.add(sun);
-    scene.add(this.panel.camera, new AmbientLight(0xffffff, 0.7));
-
     // Hard-body sphere around the primary, to scale.
-    const hb = new Mesh(new SphereGeometry(data.hardBodyRadiusM, 32, 16), new MeshLambertMaterial({ color: HARD_BODY_COLOUR }));
+    const hb = new Mesh(new SphereGeometry(data.hardBodyRadiusM, 32, 16), shadedMaterial(HARD_BODY_COLOUR));
     scene.add(hb);
 
     const cov = data.covariance;

@@ -97,6 +97,7 @@ export class VirtualList<T> {
     const first = Math.max(0, Math.floor(this.element.scrollTop / h) - this.overscan);
     const visible = Math.ceil(this.element.clientHeight / h) + 2 * this.overscan;
     const last = Math.min(this.items.length, first + visible);
+    if (this.pool.length < visible) for (const row of this.pool) delete row.dataset['index'];
     while (this.pool.length < visible) {
       const row = document.createElement('div');
       row.className = 'vrow';
@@ -106,14 +107,18 @@ export class VirtualList<T> {
       this.pool.push(row);
     }
     let activeId = '';
-    for (let k = 0; k < this.pool.length; k++) {
+    // Row i always lives in slot i mod pool size: scrolling by a few rows refills only the rows
+    // that came into view; the others keep their text and position (no work, no layout).
+    const n = this.pool.length;
+    for (let k = 0; k < n; k++) {
       const row = this.pool[k]!;
-      const i = first + k;
+      // the one index in [first, first + n) that maps to slot k
+      const i = first + ((k - (first % n) + n) % n);
       if (i >= last) {
-        row.hidden = true;
+        if (!row.hidden) row.hidden = true;
         continue;
       }
-      row.hidden = false;
+      if (row.hidden) row.hidden = false;
       if (row.dataset['index'] !== String(i)) {
         row.dataset['index'] = String(i);
         row.id = `vrow-${i}`;

@@ -43,7 +43,7 @@ export function elementSet(id: string, epoch: number, o: Orbit, phaseAt: number 
     intlDesignator: null,
     classification: 'U',
     epoch: epoch as Instant,
-    meanMotion: n,
+    meanMotionRevPerDay: n,
     eccentricity: o.e,
     inclinationDeg: o.iDeg,
     raanDeg: wrap360(o.raanDeg),

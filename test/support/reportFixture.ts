@@ -60,14 +60,15 @@ export function fixtureEvents(n: number, seed = 42): NewEvent[] {
         hardBodyRadiusM: 10,
         tier: tierFor(pc, missKm, DEFAULT_TIER_THRESHOLDS),
         warnings: i === 0 ? ['hard-body radius default 5 m used for primary and secondary'] : [],
-        // what the assessment keeps with every event it could compute a Pc for (core/events/risk.ts)
-        detail: {
+        // what the assessment keeps with every event (core/events/risk.ts); the first event is
+        // one stored before the detail was kept, so reports and exports meet both kinds
+        ...(i === 0 ? {} : { detail: {
           primaryCovRtnM2: [[400, 0, 0], [0, 10_000, 0], [0, 0, 900]],
           secondaryCovRtnM2: [[2_500, 0, 0], [0, 90_000, 0], [0, 0, 1_600]],
           planeMissM: [missKm * 1000, 0],
           planeCovM2: [[2_900, 0], [0, 2_500]],
           sigmaAlongVelocityM: 316,
-        },
+        } }),
       },
     });
   }

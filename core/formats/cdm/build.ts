@@ -28,10 +28,11 @@ export interface CdmParseResult {
 
 export interface CdmReadOptions {
   /**
-   * A covariance that is not PSD beyond rounding, or whose position block is all zero (judged by
-   * core/risk/covariancePsd.ts): 'refuse' (default) refuses the message with CDM_COVARIANCE;
-   * 'flag' keeps the message with that object's covariance status 'not-psd' or 'zero' and
-   * `usable` null, so risk can fall back to another covariance source or maximum Pc.
+   * A covariance that is not PSD beyond rounding (judged by core/risk/covariancePsd.ts): 'refuse'
+   * (default) refuses the message with CDM_COVARIANCE; 'flag' keeps the message with that
+   * object's covariance status 'not-psd' and `usable` null, so risk can fall back to another
+   * covariance source or maximum Pc. An all-zero position block is always kept that way (status
+   * 'zero', `usable` null, a note in `repairs`): it says "no covariance", not a wrong one.
    */
   readonly badCovariance?: 'refuse' | 'flag';
 }
@@ -214,7 +215,10 @@ export function buildCdm(raw: RawCdm, file: string, opts: CdmReadOptions = {}): 
     }
     const matrix = assembleCovariance(terms, dim);
     const verdict = judgeCovariance(matrix, label);
-    if (verdict.usable === null && opts.badCovariance !== 'flag')
+    // An all-zero covariance is the usual placeholder for "none known" (Keepclear's own export
+    // writes it so): the message is kept and only its covariance is refused, so the conjunction
+    // (TCA, states, miss) is not lost; a covariance that contradicts itself refuses the message.
+    if (verdict.status === 'not-psd' && opts.badCovariance !== 'flag')
       b.reject('CDM_COVARIANCE', covLine,
         `${verdict.note}; the message is refused — ask the originator for a valid covariance`);
     else if (verdict.note) b.repairs.push(`${file}:${covLine}: ${verdict.note}`);

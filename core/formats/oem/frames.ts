@@ -6,12 +6,12 @@ import { eme2000ToGcrf, gcrfToEme2000 } from '../../frames/eme2000.js';
 import { gcrfToTeme, itrfToTeme, temeToGcrf, temeToItrf } from '../../frames/teme.js';
 import type { Mat3 } from '../../frames/rotation.js';
 import type { Instant } from '../../time/instant.js';
-import { vec3, type Frame, type Km, type KmPerS, type StateVector } from '../../units.js';
+import { vec3, type Frame, type Km, type KmS, type StateVector } from '../../units.js';
 import type { OemStateFrame } from './keywords.js';
 
 const state = <F extends Frame>(r: readonly number[], v: readonly number[]): StateVector<F> => ({
   r: vec3<F, Km>(r[0]!, r[1]!, r[2]!),
-  v: vec3<F, KmPerS>(v[0]!, v[1]!, v[2]!),
+  v: vec3<F, KmS>(v[0]!, v[1]!, v[2]!),
 });
 
 /** A state given in `frame` (km, km/s) as a TEME state at UTC instant t. */

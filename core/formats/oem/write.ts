@@ -5,7 +5,7 @@
  * enough digits that reading the file back keeps positions to 1 mm (0.05 mm here).
  */
 import { toIso, type Instant } from '../../time/instant.js';
-import { vec3, type Km, type KmPerS } from '../../units.js';
+import { vec3, type Km, type KmS } from '../../units.js';
 import { formatCdmNumber } from '../cdm/values.js';
 import { lowerTriangleOf } from './covariance.js';
 import { stateFromTeme } from './frames.js';
@@ -61,7 +61,7 @@ function segmentLines(s: OemSegment): string[] {
     const o = 6 * i;
     const teme = {
       r: vec3<'TEME', Km>(s.teme[o]!, s.teme[o + 1]!, s.teme[o + 2]!),
-      v: vec3<'TEME', KmPerS>(s.teme[o + 3]!, s.teme[o + 4]!, s.teme[o + 5]!),
+      v: vec3<'TEME', KmS>(s.teme[o + 3]!, s.teme[o + 4]!, s.teme[o + 5]!),
     };
     const st = stateFromTeme(m.stateFrame, teme, t);
     out.push([

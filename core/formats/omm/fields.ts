@@ -164,8 +164,8 @@ export function ommToElementSet(get: (k: string) => OmmField | undefined, ctx: O
     bad('EPOCH', "expected a UTC time like '2007-03-05T10:34:41.4264' or '2007-064T10:34:41.4264'");
 
   const eccentricity = range('ECCENTRICITY', 0, 1, true, '');
-  const meanMotion = num('MEAN_MOTION');
-  if (!(meanMotion > 0)) bad('MEAN_MOTION', 'mean motion must be greater than 0 rev/day; the element set is invalid: correct it or re-download it', 'VALUE_OUT_OF_RANGE');
+  const meanMotionRevPerDay = num('MEAN_MOTION');
+  if (!(meanMotionRevPerDay > 0)) bad('MEAN_MOTION', 'mean motion must be greater than 0 rev/day; the element set is invalid: correct it or re-download it', 'VALUE_OUT_OF_RANGE');
   const inclinationDeg = range('INCLINATION', 0, 180, false, ' deg');
   const raanDeg = range('RA_OF_ASC_NODE', 0, 360, false, ' deg');
   const argPerigeeDeg = range('ARG_OF_PERICENTER', 0, 360, false, ' deg');
@@ -185,7 +185,7 @@ export function ommToElementSet(get: (k: string) => OmmField | undefined, ctx: O
     intlDesignator: id ? id : null,
     classification: cls,
     epoch: epoch!,
-    meanMotion,
+    meanMotionRevPerDay,
     eccentricity,
     inclinationDeg,
     raanDeg,

@@ -27,7 +27,7 @@ function bodyRows(s: ElementSet): { meanElements: Row[]; tle: Row[] } {
   return {
     meanElements: [
       ['EPOCH', formatCcsdsEpoch(s.epoch)],
-      ['MEAN_MOTION', s.meanMotion, 'rev/day'],
+      ['MEAN_MOTION', s.meanMotionRevPerDay, 'rev/day'],
       ['ECCENTRICITY', s.eccentricity],
       ['INCLINATION', s.inclinationDeg, 'deg'],
       ['RA_OF_ASC_NODE', s.raanDeg, 'deg'],
@@ -146,7 +146,7 @@ export function formatOmmCsv(sets: readonly ElementSet[]): string {
 /** Only used for the header of an empty CSV: the key order, never the values. */
 const PLACEHOLDER_KEYS: ElementSet = {
   objectId: '0', name: null, intlDesignator: null, classification: 'U', epoch: 0 as never,
-  meanMotion: 1, eccentricity: 0, inclinationDeg: 0, raanDeg: 0, argPerigeeDeg: 0, meanAnomalyDeg: 0,
+  meanMotionRevPerDay: 1, eccentricity: 0, inclinationDeg: 0, raanDeg: 0, argPerigeeDeg: 0, meanAnomalyDeg: 0,
   bstar: 0, meanMotionDot: 0, meanMotionDdot: 0, elementSetNo: 0, revAtEpoch: 0, ephemerisType: 0,
   source: { file: '', line: 0, format: 'SYNTHETIC' },
 };

@@ -248,7 +248,7 @@ interface Line2 {
   eccentricity: number;
   argPerigeeDeg: number;
   meanAnomalyDeg: number;
-  meanMotion: number;
+  meanMotionRevPerDay: number;
   revAtEpoch: number;
 }
 
@@ -288,12 +288,12 @@ function readLine2(raw: string, lineNo: number, verify: boolean): Line2 {
     l, 2, lineNo, 53, 63, 'mean motion', /^ *\d{1,2}\.\d+$/,
     "revolutions per day with 8 decimals like '15.49876543'",
   );
-  const meanMotion = Number(mmText);
-  if (!(meanMotion > 0))
+  const meanMotionRevPerDay = Number(mmText);
+  if (!(meanMotionRevPerDay > 0))
     throw new RecordProblem(
       'VALUE_OUT_OF_RANGE',
       lineNo,
-      `line 2 column 53-63 (mean motion) is ${meanMotion} rev/day: it must be greater than 0; ` +
+      `line 2 column 53-63 (mean motion) is ${meanMotionRevPerDay} rev/day: it must be greater than 0; ` +
         'the element set is invalid; re-download it',
     );
   const revText = field(l, 2, lineNo, 64, 68, 'revolution number at epoch', /^ *\d*$/, 'up to 5 digits');
@@ -305,7 +305,7 @@ function readLine2(raw: string, lineNo: number, verify: boolean): Line2 {
     eccentricity: Number(`0.${eccText}`),
     argPerigeeDeg,
     meanAnomalyDeg,
-    meanMotion,
+    meanMotionRevPerDay,
     revAtEpoch: revText.trim() === '' ? 0 : Number(revText),
   };
 }
@@ -337,7 +337,7 @@ function buildSet(
     intlDesignator: n1.intlDesignator,
     classification: n1.classification,
     epoch: instantFromYearDoy(n1.epochYear, n1.epochDoy),
-    meanMotion: n2.meanMotion,
+    meanMotionRevPerDay: n2.meanMotionRevPerDay,
     eccentricity: n2.eccentricity,
     inclinationDeg: n2.inclinationDeg,
     raanDeg: n2.raanDeg,

@@ -60,7 +60,7 @@ export function formatTle(es: ElementSet): [line1: string, line2: string] {
   if (cat === null || !/^\d+$/.test(es.objectId))
     fail(es, `catalogue number '${es.objectId}' (0..339999 with Alpha-5)`);
   if (!(es.eccentricity >= 0 && es.eccentricity < 1)) fail(es, `eccentricity ${es.eccentricity}`);
-  if (!(es.meanMotion > 0 && es.meanMotion < 100)) fail(es, `mean motion ${es.meanMotion}`);
+  if (!(es.meanMotionRevPerDay > 0 && es.meanMotionRevPerDay < 100)) fail(es, `mean motion ${es.meanMotionRevPerDay}`);
   const ecc = Math.round(es.eccentricity * 1e7);
   if (ecc >= 1e7) fail(es, `eccentricity ${es.eccentricity} (rounds to 1)`);
   const cls = /^[UCS]$/.test(es.classification) ? es.classification : 'U';
@@ -72,7 +72,7 @@ export function formatTle(es: ElementSet): [line1: string, line2: string] {
   const l2 =
     `2 ${cat} ${angleField(es.inclinationDeg)} ${angleField(es.raanDeg)} ` +
     `${String(ecc).padStart(7, '0')} ${angleField(es.argPerigeeDeg)} ` +
-    `${angleField(es.meanAnomalyDeg)} ${es.meanMotion.toFixed(8).padStart(11, ' ')}` +
+    `${angleField(es.meanAnomalyDeg)} ${es.meanMotionRevPerDay.toFixed(8).padStart(11, ' ')}` +
     // The revolution counter wraps at 100000 in the 5-column field (common practice).
     `${String(es.revAtEpoch % 100_000).padStart(5, ' ')}`;
   return [withChecksum(l1), withChecksum(l2)];

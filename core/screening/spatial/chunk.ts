@@ -63,7 +63,7 @@ export class AllVsAllChunk {
   ) {
     this.objects = elementSets.map(objectFromElements);
     this.session = new ScreeningSession(settings);
-    this.plans = elementSets.map((e) => samplingPlan(e.meanMotion, e.eccentricity));
+    this.plans = elementSets.map((e) => samplingPlan(e.meanMotionRevPerDay, e.eccentricity));
     this.keep = pairFilter(this.objects.map((o) => o.id), shard);
     this.role = new Uint8Array(this.objects.length);
     // The index samples up to the end of the last step, ≤ end + Δ.

@@ -31,7 +31,7 @@ export const SHELLS: readonly Shell[] = [
 function sgp4Rates(a: number, i: number, epoch: Instant): { mdot: number; nodedot: number; argpdot: number } {
   const rec = makeSatrec({
     objectId: '0', name: null, intlDesignator: null, classification: 'U', epoch,
-    meanMotion: meanMotionRevPerDay(a), eccentricity: 1e-4, inclinationDeg: i / DEG,
+    meanMotionRevPerDay: meanMotionRevPerDay(a), eccentricity: 1e-4, inclinationDeg: i / DEG,
     raanDeg: 0, argPerigeeDeg: 0, meanAnomalyDeg: 0, bstar: 0, meanMotionDot: 0,
     meanMotionDdot: 0, elementSetNo: 1, revAtEpoch: 0, ephemerisType: 0,
     source: { ...SYNTHETIC_SOURCE, line: 0 },
