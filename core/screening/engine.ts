@@ -192,10 +192,3 @@ function coarseRadiusBand(o: ScreeningObject): [number, number] | null {
   return [a * (1 - e) - pad, a * (1 + e) + pad];
 }
 
-/**
- * Pads each region by one refinement step on both sides (so a minimum at a region edge is
- * bracketed), clips to the window and merges overlaps.
- * @deprecated the regions toolkit's padClipMerge (regions.ts); kept while branches move over.
- */
-export const expandAndMerge = (regions: Regions, pad: number, start: number, end: number): Regions =>
-  padClipMerge(regions, pad, start, end);

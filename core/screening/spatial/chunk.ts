@@ -9,7 +9,8 @@
  */
 import type { ElementSet } from '../../elements/elementSet.js';
 import type { Encounter } from '../../events/index.js';
-import { objectFromElements, ScreeningSession, expandAndMerge, type ScreeningObject, type WindowSettings } from '../engine.js';
+import { objectFromElements, ScreeningSession, type ScreeningObject, type WindowSettings } from '../engine.js';
+import { padClipMerge } from '../regions.js';
 import { findEncounters, PropagationError } from '../refine.js';
 import { volumeBoundKm } from '../geometry.js';
 import { CTRL_CANCEL, CTRL_DONE, type ChunkResult } from '../chunk.js';
@@ -110,7 +111,7 @@ export class AllVsAllChunk {
       const regions = Array.from(pairs.regions.subarray(pairs.offsets[p]!, pairs.offsets[p + 1]!));
       const minPeriodMin = Math.min(a.periodMin, b.periodMin);
       const step = Math.min(REFINE_MAX_STEP_MS, (minPeriodMin * 60_000) / 16);
-      const merged = expandAndMerge(regions, step, start, end);
+      const merged = padClipMerge(regions, step, start, end);
       this.extra.refinedPairs++;
       this.extra.regions += merged.length / 2;
       const ctx = {
