@@ -98,7 +98,8 @@ export function mountEncounterView(host: HTMLElement, scene: EncounterScene, opt
 
   // Ellipsoid switches (only for the ellipsoids that exist).
   const switches = el('div', {
-    position: 'absolute', right: '6px', top: '6px', padding: '3px 6px', display: 'flex', flexDirection: 'column', gap: '2px',
+    // bottom left: the caption holds the top and the view-width read-out the bottom right
+    position: 'absolute', left: '6px', bottom: '6px', padding: '3px 6px', display: 'flex', flexDirection: 'column', gap: '2px',
     background: 'rgba(14, 20, 25, 0.72)', borderRadius: '3px',
   });
   const names: Record<EllipsoidKind, string> = { combined: 'combined', primary: 'primary', secondary: 'secondary' };
