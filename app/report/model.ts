@@ -5,6 +5,7 @@
  */
 import type { EncounterPlaneInput, SeriesPoint } from '../../core/plots/inputs.js';
 import type { TierId } from '../../core/risk/tiers.js';
+import type { PlanProposalJson } from '../../core/events/planProposal.js';
 
 export type { EncounterPlaneInput, SeriesPoint };
 
@@ -145,16 +146,7 @@ export interface RunChangeModel {
  */
 export interface PlanModel {
   readonly target: { readonly missKm?: number; readonly pc?: number };
-  readonly proposal: {
-    readonly burnTime: string;
-    readonly leadTimeS: number;
-    readonly direction: string;
-    readonly deltaVMs: number;
-    readonly deltaVRtnMs: readonly [number, number, number];
-    readonly achievedMissKm: number;
-    readonly achievedPc: number | null;
-    readonly propellantKg: number | null;
-  };
+  readonly proposal: PlanProposalJson;
   readonly trade: readonly { readonly leadTimeS: number; readonly deltaVMs: number; readonly achievedMissKm: number; readonly achievedPc?: number | null; readonly direction?: string }[];
   /** every row of the sweep (each lead time × direction; Δv null where the target was not met), for the Δv-against-lead-time plot */
   readonly tradeByDirection?: readonly { readonly leadTimeS: number; readonly direction: string; readonly deltaVMs: number | null }[];

@@ -4,6 +4,7 @@
  * server-sent events by `keepclear serve`, or read with `jobs.get`), and `jobs.cancel` stops it.
  * Types and request checks only; app/jobs runs them.
  */
+import type { PlanProposalJson } from '../events/planProposal.js';
 import { describe, idValue, isoField, isPlainObject, numberIn, objectWith, type Check } from './checks.js';
 
 export type JobKind = 'import' | 'screen' | 'plan';
@@ -71,16 +72,7 @@ export interface ImportFileResult {
 export interface PlanView {
   readonly event: string;
   readonly target: { readonly missKm: number | null; readonly pc: number | null };
-  readonly proposal: {
-    readonly burnTime: string;
-    readonly leadTimeS: number;
-    readonly direction: string;
-    readonly deltaVMs: number;
-    readonly deltaVRtnMs: readonly [number, number, number];
-    readonly achievedMissKm: number;
-    readonly achievedPc: number | null;
-    readonly propellantKg: number | null;
-  } | null;
+  readonly proposal: PlanProposalJson | null;
   readonly trade: readonly { readonly leadTimeS: number; readonly deltaVMs: number; readonly achievedMissKm: number; readonly achievedPc: number | null }[];
   /** how the proposal was checked, and what that check found */
   readonly verification: { readonly method: string; readonly missKm: number; readonly pc: number | null; readonly notes: readonly string[] } | null;
