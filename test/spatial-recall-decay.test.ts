@@ -90,11 +90,10 @@ function validSpanEnd(tr: Sgp4Trajectory, start: number, end: number): number {
 /** Brute force over each pair's common valid span (objects sorted by span, each against the longer-lived); computed once. */
 let cached: { events: ReferenceEvent[]; spanEnd: Map<string, number> } | null = null;
 function reference(sets: readonly ElementSet[]): { events: ReferenceEvent[]; spanEnd: Map<string, number> } {
-  return (cached ??= bruteForceOverSpans(sets));
+  return (cached ??= bruteForceOverSpans(sets, START + WINDOW_MS));
 }
 
-function bruteForceOverSpans(sets: readonly ElementSet[]): { events: ReferenceEvent[]; spanEnd: Map<string, number> } {
-  const end = START + WINDOW_MS;
+function bruteForceOverSpans(sets: readonly ElementSet[], end: number): { events: ReferenceEvent[]; spanEnd: Map<string, number> } {
   const trs = sets.map((s) => new Sgp4Trajectory(s));
   const spanEnd = new Map(trs.map((t) => [t.objectId, validSpanEnd(t, START, end)]));
   const byEnd = [...trs].sort((a, b) => spanEnd.get(a.objectId)! - spanEnd.get(b.objectId)!);
@@ -118,6 +117,7 @@ function expectMatches(found: readonly Encounter[], ref: readonly ReferenceEvent
   }
 }
 
+const involves = (id: string) => (e: { primary: string; secondary: string }) => e.primary === id || e.secondary === id;
 const involvesDecaying = (e: { primary: string; secondary: string }) => DECAYING.includes(e.primary) || DECAYING.includes(e.secondary);
 
 describe('all-vs-all with objects that decay inside the window', () => {
@@ -164,6 +164,30 @@ describe('all-vs-all with objects that decay inside the window', () => {
     const out = await runScreening(sets, { ...settings(), primaries: DECAYING }, { workers: 2 });
     expectMatches(out.encounters, ref.filter(involvesDecaying), 'fleet');
     expect(out.flagged.map((f) => f.id).sort()).toEqual(DECAYING);
+  });
+
+  it('a decay between the validity probes (window ending 4 min after it) is found where the object is used', async () => {
+    // 90101 fails at 12.229 h, propagates again from 12.275 h to 13.360 h: with the window ending
+    // at 12.3 h, the engine's hourly probes (validity.ts, up to 1 h past the end) all pass.
+    const end = START + 12.3 * HOUR;
+    const group = sets.filter((s) => s.objectId === '90101' || s.objectId.startsWith('101') || s.objectId.startsWith('103'));
+    const d = new Sgp4Trajectory(group[0]!);
+    const buf = new Float64Array(6);
+    for (let t = START; t <= end + HOUR; t = Math.min(t + HOUR, end + HOUR)) {
+      expect(d.stateInto(t as Instant, buf, 0), `90101 at ${(t - START) / HOUR} h`).toBeNull();
+      if (t === end + HOUR) break;
+    }
+    const { events: ref, spanEnd } = bruteForceOverSpans(group, end);
+    expect((spanEnd.get('90101')! - START) / HOUR).toBeLessThan(12.25);
+    expect(ref.filter(involves('90101')).length).toBeGreaterThanOrEqual(2);
+    const win = settings(end);
+    const spatial = await runScreening(group, { ...win, primaries: 'all' }, { workers: 0 });
+    const pairwise = new ScreeningChunk(group, win, new Int32Array(new SharedArrayBuffer(8))).screenAllPairs(0, 1);
+    const fleet = await runScreening(group, { ...win, primaries: ['90101'] }, { workers: 0 });
+    expectMatches(spatial.encounters, ref, 'spatial');
+    expectMatches(pairwise.encounters, ref, 'pair by pair');
+    expectMatches(fleet.encounters, ref.filter(involves('90101')), 'fleet');
+    for (const out of [spatial, fleet]) expect(out.flagged.map((f) => f.id)).toEqual(['90101']);
   });
 
   it('worker threads give the same events as the calling thread', async () => {

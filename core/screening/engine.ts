@@ -79,9 +79,10 @@ export class ScreeningSession {
 
   /**
    * Exact grid of a primary, or null if it cannot be propagated. An object that decays inside
-   * the window has a grid ending exactly at its decay (validity.ts); one that fails at a grid
-   * point all the same (SGP4's failures are not monotonic in time) has a grid ending at its last
-   * point before the failure, and is flagged: screenPair screens it up to its grid's end.
+   * the window has a grid ending exactly at its decay (validity.ts); a failure the validity
+   * probes did not see shortens its valid span to the first failure (ValidityProbe.failureSeen)
+   * and the grid ends there; should a grid point fail all the same, the grid ends at its last
+   * point before it. screenPair screens the object up to its grid's end.
    */
   grid(o: ScreeningObject, buffer?: Float64Array): StateGrid | null {
     const until = this.validUntil(o);
@@ -95,8 +96,10 @@ export class ScreeningSession {
         this.stats.sgp4Evaluations += g.count;
         return g;
       }
-      this.flag(o.id, `propagation failed: ${g.failure} at ${new Date(g.at).toISOString()}`);
-      stop = g.at;
+      // A failure between the validity probes: the object is screened up to its first failure.
+      const first = this.validity.failureSeen(o, g.at);
+      if (first === null) return null;
+      stop = Math.min(first, g.at);
     }
     const r = buildStateGridUntil(o.trajectory, start, Math.min(stop, end), step, buffer);
     if (r?.failure) this.flag(o.id, `propagation failed: ${r.failure} at ${new Date(r.failedAt).toISOString()}`);

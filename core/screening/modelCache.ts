@@ -28,14 +28,16 @@ export class ModelCache {
       const until = this.validity.validUntil(o);
       if (until === null) m = 'bad-elements';
       else if (src) {
-        m = src.initFailure ?? buildSgp4Model(
-          src.satrec,
-          src.elements.epoch,
-          (this.settings.start - MODEL_MARGIN_MS) as Instant,
-          until as Instant,
-          MODEL_NODE_SPACING_MIN,
-        );
-        this.stats.sgp4Evaluations += 2 * Math.ceil((this.settings.end - this.settings.start) / 60_000 / MODEL_NODE_SPACING_MIN) + 3;
+        const build = (to: number) => {
+          this.stats.sgp4Evaluations += 2 * Math.ceil((this.settings.end - this.settings.start) / 60_000 / MODEL_NODE_SPACING_MIN) + 3;
+          return src.initFailure ?? buildSgp4Model(src.satrec, src.elements.epoch, (this.settings.start - MODEL_MARGIN_MS) as Instant, to as Instant, MODEL_NODE_SPACING_MIN);
+        };
+        m = build(until);
+        if (typeof m === 'string' && !src.initFailure) {
+          // A failure between the validity probes: model the span up to the first failure.
+          const first = this.validity.failureSeen(o);
+          if (first !== null && first < until) m = build(first);
+        }
       } else {
         m = exactModel(o.trajectory, o.vMaxKmS ?? 15, o.radiusBandKm);
       }

@@ -52,19 +52,13 @@ export class ValidityProbe {
       this.flags.flag(o.id, `propagation failed: ${atStart} at the window start ${new Date(start).toISOString()}`);
       until = null;
     } else {
-      let reason: string | null = null;
       for (let t = start + PROBE_STEP_MS; ; t += PROBE_STEP_MS) {
         const at = Math.min(t, hi);
         if (tr.stateInto(at as Instant, buf, 0)) {
-          const first = this.firstFailure(o, start, at);
-          until = first.lastValid;
-          reason = first.reason;
+          until = this.narrowTo(o, this.firstFailure(o, start, at));
           break;
         }
         if (at === hi) break;
-      }
-      if (until < end) {
-        this.flags.flag(o.id, `propagation fails (${reason}) after ${new Date(until).toISOString()}; screened until then`);
       }
     }
     this.validity.set(o.id, until);
@@ -72,20 +66,48 @@ export class ValidityProbe {
   }
 
   /**
-   * The last valid instant before the first failure in (lo, failing]: SGP4's failure is not
-   * monotonic in time (a decayed set can propagate again for an hour after its first failure),
-   * so the span is scanned every SCAN_STEP_MS for its first failing instant, and only that last
-   * step is bisected. Runs only for objects that fail inside the window (a few per catalogue).
+   * A failure found where the object is used, inside the span the probes passed (between two
+   * probes; `at` is where it was seen, or the end of the span checked when not known): the span
+   * is scanned from the window start for the first failure, and the object is screened up to
+   * it from then on. Returns the (possibly shortened) valid span's end.
    */
-  private firstFailure(o: ScreeningObject, lo: number, failing: number): { lastValid: number; reason: string } {
+  failureSeen(o: ScreeningObject, at?: number): number | null {
+    const until = this.validUntil(o);
+    if (until === null) return null;
+    const first = this.firstFailure(o, this.settings.start, Math.min(at ?? until, until));
+    if (!first) return until;
+    const shorter = this.narrowTo(o, first);
+    this.validity.set(o.id, shorter);
+    return shorter;
+  }
+
+  private narrowTo(o: ScreeningObject, first: { lastValid: number; reason: string } | null): number {
+    const hi = this.settings.end + MODEL_MARGIN_MS;
+    if (!first) return hi;
+    if (first.lastValid < this.settings.end) {
+      this.flags.flag(o.id, `propagation fails (${first.reason}) after ${new Date(first.lastValid).toISOString()}; screened until then`);
+    }
+    return first.lastValid;
+  }
+
+  /**
+   * The last valid instant before the first failure in (lo, last], or null if none is seen:
+   * SGP4's failure is not monotonic in time (a decayed set can propagate again for an hour after
+   * its first failure), so the span is scanned every SCAN_STEP_MS (and at `last`) for its first
+   * failing instant, and only that last step is bisected. Runs only for objects seen to fail
+   * inside the window (a few per catalogue).
+   */
+  private firstFailure(o: ScreeningObject, lo: number, last: number): { lastValid: number; reason: string } | null {
     const tr = o.trajectory, buf = this.probe;
-    let up = failing;
-    for (let t = lo + SCAN_STEP_MS; t < failing; t += SCAN_STEP_MS) {
-      if (tr.stateInto(t as Instant, buf, 0)) {
-        up = t;
+    let up = NaN;
+    for (let t = lo + SCAN_STEP_MS; ; t += SCAN_STEP_MS) {
+      const at = Math.min(t, last);
+      if (tr.stateInto(at as Instant, buf, 0)) {
+        up = at;
         break;
       }
-      lo = t;
+      if (at === last) return null;
+      lo = at;
     }
     let reason = tr.stateInto(up as Instant, buf, 0) ?? 'failed';
     while (up - lo > VALIDITY_RESOLUTION_MS) {
