@@ -3,8 +3,10 @@
  *  1. `broad`: the spatial index over the blocks of time it is given (broadPhase.ts);
  *  2. `refine`: exact refinement (refine.ts) of the candidate pairs it is given, each over its
  *     candidate regions padded by one refinement step, exactly as the pair-by-pair engine does;
- *  3. `screenShortLived`: objects that stop propagating inside the window (decay) are screened
- *     by the pair-by-pair engine against every object, up to their decay.
+ *  3. `screenPairwise`: objects that stop propagating inside the window (decay; found by the
+ *     validity probe, or by the index's sampling when the probe missed it) are screened by the
+ *     pair-by-pair engine against every object, up to their first failure (their exact grid
+ *     ends there: ScreeningSession.grid).
  * Objects whose propagation fails at the window start are flagged and left out.
  */
 import type { ElementSet } from '../../elements/elementSet.js';
