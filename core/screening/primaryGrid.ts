@@ -120,7 +120,7 @@ export function buildStateGridUntil(
 ): { grid: StateGrid; failure: FailureReason | null; failedAt: number } | null {
   const span = until - start;
   if (!(span > 0)) return null;
-  const k = Math.max(1, Math.ceil(span / stepMs - STEP_COUNT_SLACK));
+  const k = Math.max(1, Math.ceil((span - STEP_COUNT_SLACK_MS) / stepMs));
   const h = span / k;
   const g = buildStateGridPoints(traj, start, k + 1, h, buffer);
   if (!('failure' in g)) return { grid: g, failure: null, failedAt: NaN };
@@ -131,8 +131,12 @@ export function buildStateGridUntil(
   return 'failure' in kept ? null : { grid: kept, failure: g.failure, failedAt: g.at };
 }
 
-/** Relative slack when counting steps: a span that is a whole number of steps up to rounding is counted as such. */
-const STEP_COUNT_SLACK = 1e-9;
+/**
+ * A span longer than a whole number of steps by less than this (ms) counts as that number: instants
+ * near 2026 in ms carry rounding of 2.4e-4 ms (one ulp of 1.8e12), so a decay exactly k steps
+ * after the start can come out a hair longer. The step then exceeds the asked one by < 1 µs.
+ */
+const STEP_COUNT_SLACK_MS = 1e-3;
 
 /** Instant of a grid's last point. */
 export const gridEnd = (g: StateGrid): number => g.start + (g.count - 1) * g.stepMs;
