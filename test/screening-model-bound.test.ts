@@ -1,6 +1,7 @@
 /**
  * The screening filters prune with the filter model's error bound ε (core/screening/orbitModel.ts):
- * it must bound |model − SGP4| everywhere in the window, not only where it was measured.
+ * it must bound |model − SGP4| everywhere in the window, not only where it was measured; so must
+ * its velocity bound (velocityErrKmS, used by the distance scan's closing-speed step).
  * Reference: SGP4 itself (satellite.js, verified against Vallado et al. 2006 in
  * sgp4-verification.test.ts), evaluated at random instants the model never saw.
  */
@@ -24,7 +25,7 @@ const random = () => ((rng = (rng * 1103515245 + 12345) % 2147483648) / 21474836
 
 function violations(sets: readonly ElementSet[], samples: number): { checked: number; bad: string[] } {
   const bad: string[] = [];
-  const sgp4 = new Float64Array(6), model = new Float64Array(3);
+  const sgp4 = new Float64Array(6), model = new Float64Array(6);
   let checked = 0;
   for (const es of sets) {
     const tr = new Sgp4Trajectory(es);
@@ -33,10 +34,13 @@ function violations(sets: readonly ElementSet[], samples: number): { checked: nu
     for (let k = 0; k < samples; k++) {
       const t = (START + random() * WEEK_MS) as Instant;
       if (tr.stateInto(t, sgp4, 0)) continue;
-      m.positionInto(t, model, 0);
+      m.stateInto!(t, model, 0);
       const err = Math.hypot(sgp4[0]! - model[0]!, sgp4[1]! - model[1]!, sgp4[2]! - model[2]!);
+      // The velocity bound covers SGP4's velocity (its gap to dr/dt is in the bound's floor).
+      const verr = Math.hypot(sgp4[3]! - model[3]!, sgp4[4]! - model[4]!, sgp4[5]! - model[5]!);
       checked++;
       if (err > m.epsKm) bad.push(`${es.objectId} (${es.name}) at ${new Date(t).toISOString()}: |Δ| ${err.toFixed(2)} km > ε ${m.epsKm.toFixed(2)} km`);
+      if (!(verr <= m.velocityErrKmS!)) bad.push(`${es.objectId} (${es.name}) at ${new Date(t).toISOString()}: |Δv| ${verr.toFixed(4)} km/s > ${m.velocityErrKmS!.toFixed(4)} km/s`);
     }
   }
   return { checked, bad };
