@@ -189,7 +189,9 @@ describe('all-vs-all with objects that decay inside the window', () => {
     const spatial = await runScreening(group, { ...win, primaries: 'all' }, { workers: 0 });
     const pairwise = new ScreeningChunk(group, win, new Int32Array(new SharedArrayBuffer(8))).screenAllPairs(0, 1);
     const fleet = await runScreening(group, { ...win, primaries: ['90101'] }, { workers: 0 });
+    const threaded = await runScreening(group, { ...win, primaries: 'all' }, { workers: 2 });
     expectMatches(spatial.encounters, ref, 'spatial');
+    expectMatches(threaded.encounters, ref, 'spatial, 2 workers');
     expectMatches(pairwise.encounters, ref, 'pair by pair');
     expectMatches(fleet.encounters, ref.filter(involves('90101')), 'fleet');
     for (const out of [spatial, fleet]) expect(out.flagged.map((f) => f.id)).toEqual(['90101']);
