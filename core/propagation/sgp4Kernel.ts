@@ -34,14 +34,21 @@
  *   OUT OF OR IN CONNECTION WITH THE SOFTWARE OR THE USE OR OTHER DEALINGS IN THE
  *   SOFTWARE.
  *
- * State written back into the record, exactly as satellite.js 7.1.0 does: `t`, `error`,
- * `tempa`, and for deep-space orbits `aycof`, `xlcof`, `con41`, `x1mth2`, `x7thm1`. Note that
- * satellite.js does NOT store the resonance integrator's `atime`, `xli`, `xni` after a call
- * (its sgp4 keeps only em, argpm, inclm, mm, nodem, nm from dspace's result), unlike the C++
- * reference which keeps them. `atime` therefore stays 0 from sgp4init, and every call restarts
- * the integration at epoch: results do not depend on call order. This port does the same
- * (reads the three fields, never writes them), so it stays equal to satellite.js; the test
- * calls instants in scrambled order to hold that.
+ * State written back into the record: as satellite.js 7.1.0, `t`, `error`, `tempa`, and for
+ * deep-space orbits `aycof`, `xlcof`, `con41`, `x1mth2`, `x7thm1`. One deliberate difference:
+ * the resonance integrator's `atime`, `xli`, `xni`. satellite.js does not store them after a
+ * call (its sgp4 keeps only em, argpm, inclm, mm, nodem, nm from dspace's result), so `atime`
+ * stays 0 from sgp4init and every call integrates again from epoch in 720-min steps (at ten
+ * days, 20 steps of 6 to 20 sines and cosines each: a half-day-resonant orbit then cost ~10
+ * near-Earth calls). The C++ reference of Vallado et al. stores them, as done here, and
+ * continues from the stored step when the next instant lies further from epoch on the same
+ * side (it restarts otherwise, by the same test satellite.js applies). This changes no result:
+ * each step is a function of the previous step's (xli, xni, atime) alone and atime advances by
+ * exact multiples of 720, so continuing from step k gives the same doubles as marching again
+ * from epoch through step k. test/sgp4-kernel.test.ts holds the outputs bit-identical to
+ * satellite.js with instants in scrambled order (forward and backward jumps), which is what
+ * would expose a difference. A record the kernel has used may also be given to satellite.js's
+ * sgp4: it continues from the stored step by the same argument.
  */
 import { constants, type SatRec } from 'satellite.js';
 
@@ -336,7 +343,7 @@ export function sgp4Into(satrec: SatRec, tsince: number, pv: Float64Array, off: 
 /**
  * dspace.js: deep-space secular and resonance contributions to the mean elements. Inputs as
  * satellite.js's sgp4 passes them (t and tc both satrec.t); outputs into the ds* scratch.
- * atime, xli, xni are read from the record and, as in satellite.js, not written back.
+ * atime, xli, xni: the integrator's last step, read from and written back to the record.
  */
 function dspace(
   satrec: SatRec,
@@ -451,6 +458,10 @@ function dspace(
         atime += delt;
       }
     }
+    // Kept for the next call (the C++ reference's behaviour; see the header).
+    satrec.atime = atime;
+    satrec.xli = xli;
+    satrec.xni = xni;
     nm = xni + xndt * ft + xnddt * ft * ft * 0.5;
     xl = xli + xldot * ft + xndt * ft * ft * 0.5;
     if (irez !== 1) {
