@@ -2,7 +2,7 @@ import type { Instant } from '../time/instant.js';
 import type { OrbitModel } from './orbitModel.js';
 import type { StateGrid } from './primaryGrid.js';
 import { TRACK_STRIDE } from './planarTrack.js';
-import { secondaryPlaneWindows, type SecondaryBlocks } from './secondaryWindows.js';
+import { BLOCK_NORMAL_LERP_RAD, blockNormalInto, secondaryPlaneWindows, type SecondaryBlocks } from './secondaryWindows.js';
 import { intersectRegions, pushRegion, type Regions } from './regions.js';
 
 export type { Regions } from './regions.js';
@@ -59,14 +59,18 @@ export function candidateRegions(
     planeRegions = [];
     // Quick test per window before the closed form: g = n_S·r_P at the window's middle, and
     // |ġ| ≤ v_P + |ṅ_S|·r_P over its half-width (same threshold as planeWindows).
-    const thrP = dKm + s.epsKm + GRID_EPS_KM + NORMAL_INTERP_KM;
+    // With the secondary's block tables at hand its normal comes from them (blockNormalInto),
+    // within BLOCK_NORMAL_LERP_RAD of the model's; otherwise from the model's own table.
+    const sb = shared?.blocks && shared.blocks.start === start && shared.blocks.end === end ? shared.blocks : null;
+    const thrP = dKm + s.epsKm + GRID_EPS_KM + (sb ? BLOCK_NORMAL_LERP_RAD * grid.maxRadiusKm() + NORMAL_INTERP_KM : NORMAL_INTERP_KM);
     const gdot = grid.vMaxKmS + NORMAL_RATE_BOUND * grid.maxRadiusKm();
     for (let k = 0; k < w.length; k += 2) {
       const a = Math.max(start, w[k]!), b = Math.min(end, w[k + 1]!);
       if (b < a) continue;
       const tm = 0.5 * (a + b);
       grid.positionInto(tm, POS, 0);
-      s.tabledNormalInto(tm as Instant, NRM, 0);
+      if (sb) blockNormalInto(sb, tm, NRM);
+      else s.tabledNormalInto(tm as Instant, NRM, 0);
       const g = Math.abs(NRM[0]! * POS[0]! + NRM[1]! * POS[1]! + NRM[2]! * POS[2]!);
       if (stats) stats.planeVisits++;
       if (g - gdot * ((b - a) / 2000) > thrP) continue;

@@ -110,7 +110,18 @@ export function buildStateGrid(
   stepMs: number,
   buffer?: Float64Array,
 ): StateGrid | { failure: FailureReason; at: number } {
-  const count = Math.ceil((end - start) / stepMs) + 1;
+  return buildStateGridPoints(traj, start, gridPointCount(start, end, stepMs), stepMs, buffer);
+}
+
+/** A grid of exactly `count` points from `start` (the point count given, not derived from an end in floating point). */
+export function buildStateGridPoints(
+  traj: Trajectory,
+  start: Instant,
+  count: number,
+  stepMs: number,
+  buffer?: Float64Array,
+): StateGrid | { failure: FailureReason; at: number } {
+  if (buffer && buffer.length < count * 6) throw new Error(`grid buffer holds ${buffer.length / 6} points, ${count} needed`);
   const states = buffer ?? new Float64Array(count * 6);
   let vMax = 0;
   for (let j = 0; j < count; j++) {
@@ -121,6 +132,44 @@ export function buildStateGrid(
   }
   return new StateGrid(start, stepMs, count, states, vMax);
 }
+
+/**
+ * The grid of an object that stops propagating at `until` (≤ the window end): it ends exactly
+ * there, its step shortened to the largest ≤ `stepMs` that divides [start, until] evenly (a
+ * shorter step only makes the interpolation better), so no instant the object is screened at
+ * lies beyond its last point. If a point fails even so (SGP4's failure need not be monotonic in
+ * time), the grid ends at its last point before that failure (reported as `failure`, `failedAt`),
+ * and the object is screened up to that point. Null when not even one step can be computed.
+ */
+export function buildStateGridUntil(
+  traj: Trajectory,
+  start: Instant,
+  until: number,
+  stepMs: number,
+  buffer?: Float64Array,
+): { grid: StateGrid; failure: FailureReason | null; failedAt: number } | null {
+  const span = until - start;
+  if (!(span > 0)) return null;
+  const k = Math.max(1, Math.ceil((span - STEP_COUNT_SLACK_MS) / stepMs));
+  const h = span / k;
+  const g = buildStateGridPoints(traj, start, k + 1, h, buffer);
+  if (!('failure' in g)) return { grid: g, failure: null, failedAt: NaN };
+  // The points before the failing one were computed: the grid keeps them.
+  const count = Math.round((g.at - start) / h);
+  if (count < 2) return null;
+  const kept = buildStateGridPoints(traj, start, count, h, buffer);
+  return 'failure' in kept ? null : { grid: kept, failure: g.failure, failedAt: g.at };
+}
+
+/**
+ * A span longer than a whole number of steps by less than this (ms) counts as that number: instants
+ * near 2026 in ms carry rounding of 2.4e-4 ms (one ulp of 1.8e12), so a decay exactly k steps
+ * after the start can come out a hair longer. The step then exceeds the asked one by < 1 µs.
+ */
+const STEP_COUNT_SLACK_MS = 1e-3;
+
+/** Instant of a grid's last point. */
+export const gridEnd = (g: StateGrid): number => g.start + (g.count - 1) * g.stepMs;
 
 export const gridPointCount = (start: number, end: number, stepMs: number): number =>
   Math.ceil((end - start) / stepMs) + 1;

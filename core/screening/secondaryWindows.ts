@@ -73,6 +73,32 @@ export function secondaryBlocks(s: OrbitModel, start: number, end: number, reuse
   return { start, end, count, bnd, ctr };
 }
 
+/**
+ * The secondary's mean-plane normal at t, linear between the block boundaries' normals: no
+ * trigonometry and no interpolation weights per call. A normal turning at ≤ ω rad/s departs
+ * from its chord by ≤ (ω·BLOCK_MS)²/8 (2.6e-5 rad at ω = 2e-6 rad/s); see BLOCK_NORMAL_LERP_RAD.
+ */
+export function blockNormalInto(sb: SecondaryBlocks, t: number, out: Float64Array): void {
+  let b = Math.floor((t - sb.start) / BLOCK_MS);
+  if (b < 0) b = 0;
+  if (b > sb.count - 1) b = Math.max(0, sb.count - 1);
+  const t0 = blockEnd(sb.start, sb.end, b), t1 = blockEnd(sb.start, sb.end, b + 1);
+  const f = t1 > t0 ? (t - t0) / (t1 - t0) : 0;
+  const bnd = sb.bnd, o0 = b * BND, o1 = o0 + BND;
+  // n = (sin i·sin Ω, −sin i·cos Ω, cos i) from the boundary tables
+  const x0 = bnd[o0 + 6]! * bnd[o0 + 4]!, y0 = -bnd[o0 + 6]! * bnd[o0 + 3]!, z0 = bnd[o0 + 5]!;
+  const x1 = bnd[o1 + 6]! * bnd[o1 + 4]!, y1 = -bnd[o1 + 6]! * bnd[o1 + 3]!, z1 = bnd[o1 + 5]!;
+  out[0] = x0 + f * (x1 - x0);
+  out[1] = y0 + f * (y1 - y0);
+  out[2] = z0 + f * (z1 - z0);
+}
+
+/**
+ * Bound of the chord error of blockNormalInto (rad), twice (2e-6 rad/s × BLOCK_MS)²/8: J2 turns a
+ * mean plane at ≤ ~1e-6 rad/s (pairFilter's NORMAL_RATE_BOUND allows 2e-6).
+ */
+export const BLOCK_NORMAL_LERP_RAD = 2 * ((2e-6 * BLOCK_MS) / 1000) ** 2 / 8;
+
 /** The primary's mean-plane normal at every block boundary of [start, end] (3 per boundary). */
 export function primaryBlockNormals(p: OrbitModel, start: number, end: number): Float64Array {
   const count = Math.max(0, Math.ceil((end - start) / BLOCK_MS));
@@ -80,6 +106,9 @@ export function primaryBlockNormals(p: OrbitModel, start: number, end: number): 
   for (let b = 0; b <= count; b++) p.tabledNormalInto(blockEnd(start, end, b) as Instant, out, b * 3);
   return out;
 }
+
+/** Eccentricity below which ν ↔ M use their series (remainder ≤ ~e³, see meanFromTrue). */
+const SERIES_MAX_E = 0.01;
 
 // Scratch buffers (single-threaded per worker; no allocation per call).
 const ME0 = new Float64Array(7);
@@ -92,7 +121,7 @@ const TWO_PI = 2 * Math.PI;
  * rad for e < 0.01: ≪ 1 ms in time, inside TIME_PAD_MS.
  */
 function meanFromTrue(nu: number, e: number): number {
-  if (e < 0.01) return nu - 2 * e * Math.sin(nu) + 0.75 * e * e * Math.sin(2 * nu);
+  if (e < SERIES_MAX_E) return nu - 2 * e * Math.sin(nu) + 0.75 * e * e * Math.sin(2 * nu);
   const k = Math.floor((nu + Math.PI) / TWO_PI);
   const v = nu - k * TWO_PI;
   const E = 2 * Math.atan(Math.sqrt((1 - e) / (1 + e)) * Math.tan(v / 2));
@@ -176,9 +205,24 @@ export function secondaryPlaneWindows(
       const uLo = wLo + bnd[o0 + 7]! - CURVE_PAD_RAD, uHi = wHi + bnd[o1 + 7]! + CURVE_PAD_RAD;
       const kFirst = Math.ceil((uLo - beta - thHi - Math.PI / 2) / Math.PI);
       const kLast = Math.floor((uHi + beta - thLo - Math.PI / 2) / Math.PI);
+      // Near-circular: the series' sines at ν + jπ are ±sin ν and sin 2ν, so one pair of sines
+      // per block serves every window of it.
+      const series = e < SERIES_MAX_E;
+      const nuA0 = thLo + Math.PI / 2 + kFirst * Math.PI - beta - wHi, nuB0 = thHi + Math.PI / 2 + kFirst * Math.PI + beta - wLo;
+      const sA = series ? Math.sin(nuA0) : 0, s2A = series ? Math.sin(2 * nuA0) : 0;
+      const sB = series ? Math.sin(nuB0) : 0, s2B = series ? Math.sin(2 * nuB0) : 0;
       for (let k = kFirst; k <= kLast; k++) {
         const u1 = thLo + Math.PI / 2 + k * Math.PI - beta, u2 = thHi + Math.PI / 2 + k * Math.PI + beta;
-        const Ma = meanFromTrue(u1 - wHi, e), Mb = meanFromTrue(u2 - wLo, e);
+        let Ma: number, Mb: number;
+        if (series) {
+          const sign = (k - kFirst) % 2 === 0 ? 1 : -1;
+          const nuA = u1 - wHi, nuB = u2 - wLo;
+          Ma = nuA - 2 * e * sign * sA + 0.75 * e * e * s2A;
+          Mb = nuB - 2 * e * sign * sB + 0.75 * e * e * s2B;
+        } else {
+          Ma = meanFromTrue(u1 - wHi, e);
+          Mb = meanFromTrue(u2 - wLo, e);
+        }
         const ta = tc + (Ma - Mc) / Mdot, tb = tc + (Mb - Mc) / Mdot;
         pushRegion(out, Math.max(t0, ta) - TIME_PAD_MS, Math.min(t1, tb) + TIME_PAD_MS);
       }
