@@ -8,8 +8,8 @@
  * The main process is not bundled with core/, db/ and app/: its imports of them stay as written
  * ('../app/bridge/handlers.js' from dist/electron/main.js), so they load the compiled program
  * that `npm run build:cli` (scripts/build.mjs, also run at install) puts in dist/core, dist/db and
- * dist/app — the same files the CLI runs, whose screening workers start from compiled .js files
- * beside them. npm dependencies and Node built-ins stay external too. The sandboxed preload is
+ * dist/app — the same code the CLI runs (scripts/build.mjs makes every such import from electron/
+ * a bundled entry point at that path; shared code lives in dist/chunks). npm dependencies and Node built-ins stay external too. The sandboxed preload is
  * bundled whole (it cannot load other files).
  */
 import { builtinModules } from 'node:module';

@@ -20,7 +20,7 @@
 // Why: measured on the 30,000-object screening (issue 10), the per-file build spent ~0.2 s of
 // the main thread and ~0.07 s of each worker resolving, loading and compiling ~100 modules.
 import { build } from 'esbuild';
-import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, utimesSync } from 'node:fs';
 import { dirname, join, relative, resolve, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -152,8 +152,10 @@ try {
   mkdirSync(join(OUT, CHUNKS), { recursive: true });
   const fresh = new Set(readdirSync(join(STAGE, CHUNKS)));
   for (const name of fresh) {
-    // Same name, same content (the hash): a chunk already in place stays as it is.
-    if (!existsSync(join(OUT, CHUNKS, name))) renameSync(join(STAGE, CHUNKS, name), join(OUT, CHUNKS, name));
+    // Same name, same content (the hash): a chunk already in place stays, marked as in use now.
+    const at = join(OUT, CHUNKS, name);
+    if (existsSync(at)) utimesSync(at, new Date(), new Date());
+    else renameSync(join(STAGE, CHUNKS, name), at);
   }
   // Only the compiled program's folders are replaced; the Electron build keeps its own.
   for (const f of FOLDERS) {

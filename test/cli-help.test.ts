@@ -5,12 +5,13 @@
  * --all-events, the attention options of screen for scheduled use), so a command that loses an option from its help fails this test.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { COMMANDS } from '../cli/commands/index.js';
 import { ROOT, runKeepclear, type Run } from './support/cli.js';
+import { loadedSources } from './support/loadedSources.js';
 
 const EXPECTED: Record<string, string[]> = {
   import: ['--db', '--hbr-m'],
@@ -85,7 +86,8 @@ describe('start-up of keepclear --help', () => {
     );
     const ms = performance.now() - t0;
     expect(r.status, r.stderr).toBe(0);
-    const loaded = readFileSync(log, 'utf8');
+    // dist/ is bundled: each loaded file is listed with the sources its source map names.
+    const loaded = loadedSources(log);
     expect(loaded).toMatch(/\/commander\//); // the record works: the parser itself is there
     expect(loaded).toMatch(/\/cli\/commands\/screen\.(ts|js)/);
     for (const heavy of ['better-sqlite3', 'fast-xml-parser', 'satellite.js', 'vega', 'cli-progress', '/db/connection.', '/app/', '/core/screening/run.', '/core/risk/']) {

@@ -3,9 +3,11 @@ import { Worker } from 'node:worker_threads';
 /**
  * Starts worker threads on a module next to the caller, given as its TypeScript name.
  *
- * The shipped program runs compiled JavaScript (dist/, built at install time): there the caller
- * itself is a .js file and the worker is the compiled .js beside it, started directly — no
- * compiling or bundling at run time. Only when running from the TypeScript sources (tests
+ * The shipped program runs compiled JavaScript (dist/, bundled at install time by
+ * scripts/build.mjs): there every worker file is a bundled entry point at its own dist/ path
+ * (dist/core/screening/worker.js), started directly — no compiling or bundling at run time. The
+ * caller's code sits in a shared chunk, so the build hands it the URL its own file would have
+ * (dist/core/screening/run.js) as `import.meta.url`, and the worker is found beside that. Only when running from the TypeScript sources (tests
  * under vitest, `node --import tsx` benchmarks) is the worker bundled with esbuild once per
  * process (bundle.ts), or, without esbuild, started through the TypeScript loader.
  */
