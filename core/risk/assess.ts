@@ -4,7 +4,7 @@ import type { Matrix } from '../math/linalg.js';
 import type { Encounter, Matrix2, Matrix3, RiskAssessment, RiskDetail, StateArray } from '../events/index.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
 import { defaultCovariance, regimeOf } from './covarianceDefault.js';
-import { covarianceFromHistory } from './covarianceHistory.js';
+import { growHistorySample, historySample, type HistorySample } from './covarianceHistory.js';
 import { judgeCovariance } from './covariancePsd.js';
 import type { Regime } from './defaultCovarianceTable.js';
 import { encounterPlane, type EncounterPlane } from './encounterPlane.js';
@@ -33,6 +33,12 @@ export interface CovarianceInput {
   readonly ephemeris?: { readonly rtnM2: Matrix; readonly source: string; readonly note: string } | null;
   /** the object's element sets, ascending epochs, newest last */
   readonly history?: readonly ElementSet[] | null;
+  /**
+   * historySample(history), when the caller already has it (it depends on the object only, so a
+   * caller assessing many encounters of one object computes it once); given (even null), it is
+   * used instead of `history`
+   */
+  readonly historyStats?: HistorySample | null;
   /** the element set used for the encounter (gives regime and age for the default table) */
   readonly elements?: ElementSet | null;
   /** regime when no element set is at hand (e.g. an ephemeris object) */
@@ -114,9 +120,10 @@ function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch:
     const g = graded(input.ephemeris.rtnM2, input.ephemeris.source);
     return { ...g, notes: [...g.notes, `${label}: ${input.ephemeris.note}`] };
   }
-  if (input.history) {
-    const h = covarianceFromHistory(input.history, tca);
-    if (h) return graded(h.rtn6, h.source);
+  const stats = input.historyStats !== undefined ? input.historyStats : input.history ? historySample(input.history) : null;
+  if (stats) {
+    const h = growHistorySample(stats, tca);
+    return graded(h.rtn6, h.source);
   }
   const regime = input.regime ?? (input.elements ? regimeOf(input.elements) : null);
   if (regime) {
