@@ -32,6 +32,11 @@ export interface ScreenRequest {
    * sets it, so series order and date the runs as they happened.
    */
   readonly dataAt?: Instant;
+  /**
+   * Called as each phase ends (screening, risk, store and link, read back) with its wall time
+   * in ms: the benchmark's phase timings (KEEPCLEAR_PHASES=1 on the command line).
+   */
+  readonly onPhase?: (phase: string, ms: number) => void;
 }
 
 export interface ScreenResult {
@@ -54,6 +59,7 @@ export interface ScreenResult {
  * A cancelled run is stored as cancelled with what was found so far.
  */
 export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promise<ScreenResult> {
+  let mark = performance.now();
   const sets = latestElementSets(db);
   if (sets.length === 0) {
     throw new KeepclearError('NOT_FOUND', 'the database holds no element sets; import a catalogue first (keepclear import FILE)');
@@ -70,6 +76,12 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
     }
   }
   // The fingerprint of the sets already loaded: reading the catalogue twice cost as much as the load.
+  const phase = (name: string): void => {
+    const now = performance.now();
+    req.onPhase?.(name, now - mark);
+    mark = now;
+  };
+  phase('load');
   const runId = createRun(db, req.settings, fingerprintOfSets(sets), sets.length);
   let outcome;
   try {
@@ -93,7 +105,9 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
   // which message is "the same conjunction" is the series rule's answer.
   // An ephemeris's covariance block, when it has one, is that primary's covariance (app/risk.ts).
   const risk = new RiskContext(db, new Map([...choice.used].map(([id, u]) => [id, u.trajectory])));
+  phase('screening');
   const events = outcome.encounters.map((e) => ({ ...e, risk: risk.assess(e) }));
+  phase('risk');
   const linked = inTransaction(db, () => {
     if (req.dataAt !== undefined) setRunDataAt(db, runId, req.dataAt);
     for (const u of choice.used.values()) recordRunEphemeris(db, runId, u.summary);
@@ -106,13 +120,16 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
     // In the same transaction: nobody sees the run's events without their series.
     return linkRun(db, runId);
   });
-  return {
+  phase('store and link');
+  const result = {
     run: getRun(db, runId)!,
     events: eventsOfRun(db, runId),
     linked,
     ephemerides: runEphemerides(db, runId),
     notes: choice.notes,
   };
+  phase('read back');
+  return result;
 }
 
 export const daysAfter = (start: Instant, days: number): Instant => (start + days * 86_400_000) as Instant;
