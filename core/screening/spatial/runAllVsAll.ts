@@ -60,10 +60,20 @@ async function drive(sides: Side[], local: AllVsAllChunk, total: number, win: Wi
   const n = sides.length;
   const { steps, blocks } = stepPlan(win);
   const indexUnits = Math.floor(total / 2);
-  // Blocks interleaved among threads; each block's share of the progress units.
+  // Blocks handed out one at a time to whichever thread is free (blocks differ in cost, and
+  // so do threads on a shared machine); each block's share of the progress units.
   const share = (b: number) => Math.floor(((b + 1) * indexUnits) / blocks) - Math.floor((b * indexUnits) / blocks);
-  const mine = sides.map((_, w) => Array.from({ length: blocks }, (_, b) => b).filter((b) => b % n === w));
-  const broad = await Promise.all(sides.map((s, w) => s.broad(mine[w]!, mine[w]!.map(share))));
+  let next = 0;
+  const broad = await Promise.all(
+    sides.map(async (s) => {
+      const parts: BroadResult[] = [];
+      while (next < blocks) {
+        const b = next++;
+        parts.push(await s.broad([b], [share(b)]));
+      }
+      return joinBroad(parts);
+    }),
+  );
 
   // Indexed objects whose sampling failed somewhere are screened pairwise, with the short-lived.
   const failed = new Set(broad.flatMap((r) => r.failed));
@@ -89,6 +99,26 @@ async function drive(sides: Side[], local: AllVsAllChunk, total: number, win: Wi
     stats: { ...stats[w], ...pw[w]!.stats, indexedObjects: w === 0 ? total - pairwise.length - local.flaggedIds().length : 0 },
     cancelled: refined[w]!.cancelled || pw[w]!.cancelled,
   }));
+}
+
+/** One thread's results of several broad() calls as one. */
+function joinBroad(parts: readonly BroadResult[]): BroadResult {
+  const stats = { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0, sgp4Evaluations: 0 };
+  for (const p of parts) for (const k of Object.keys(stats) as (keyof typeof stats)[]) stats[k] += p.stats[k];
+  const cat = (pick: (c: BroadResult['candidates']) => Int32Array): Int32Array => {
+    const out = new Int32Array(parts.reduce((a, p) => a + pick(p.candidates).length, 0));
+    let at = 0;
+    for (const p of parts) {
+      out.set(pick(p.candidates), at);
+      at += pick(p.candidates).length;
+    }
+    return out;
+  };
+  return {
+    candidates: { i: cat((c) => c.i), j: cat((c) => c.j), k: cat((c) => c.k) },
+    stats,
+    failed: [...new Set(parts.flatMap((p) => p.failed))],
+  };
 }
 
 function dropObjects(c: BroadResult['candidates'], drop: Set<number>): BroadResult['candidates'] {
