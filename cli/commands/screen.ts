@@ -170,7 +170,7 @@ export default defineCommand<ScreenOptions>({
     const { seriesCounts } = await import('../present/series.js');
     const { presentFileOutcome, presentImportTotal } = await import('../present/imports.js');
     const { eventSummary } = await import('../present/events.js');
-    const { writeJsonWithCaution } = await import('../present/json.js');
+    const { writeJsonWithCaution, writeJsonListWithCaution } = await import('../present/json.js');
     const { progress } = await import('../present/progress.js');
     const { describeEphemeris } = await import('../../app/ephemerisText.js');
 
@@ -231,7 +231,7 @@ export default defineCommand<ScreenOptions>({
       if (run.status === 'cancelled') process.stderr.write('keepclear: screening cancelled; partial results stored\n');
       const states = seriesStatesOf(db, events);
       phase('series states');
-      if (o.json !== undefined) writeJsonWithCaution(o.json, { run: runToJson(run, run.flagged, ephemerides), events: events.map((e) => eventToJson(e, states)) });
+      if (o.json !== undefined) writeJsonListWithCaution(o.json, { run: runToJson(run, run.flagged, ephemerides) }, 'events', events, (e) => eventToJson(e, states));
       phase('json');
       const attention = attentionOf(events, o.attentionTier ?? DEFAULT_ATTENTION_TIER);
       if (o.attentionFile !== undefined) {
