@@ -2,7 +2,8 @@ import { basename } from 'node:path';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import { EphemerisTrajectory } from '../core/propagation/ephemeris.js';
 import type { Matrix } from '../core/math/linalg.js';
-import { assessEncounter, type CovarianceInput } from '../core/risk/assess.js';
+import { assessEncounter, type AssessInputs, type CovarianceInput } from '../core/risk/assess.js';
+import { assessMany } from '../core/risk/assessMany.js';
 import { historySample, type HistorySample } from '../core/risk/covarianceHistory.js';
 import type { TierThresholds } from '../core/risk/tiers.js';
 import type { Encounter, RiskAssessment } from '../core/events/index.js';
@@ -100,27 +101,45 @@ export class RiskContext {
     return { cdmRtnM2: cdmRtnM2 ?? null, cdmDoubtfulNote: doubtful ?? null, ephemeris, history: h, historyStats: stats, elements: h[h.length - 1] ?? null };
   }
 
-  assess(
-    e: Encounter,
-    cdm?: {
-      primaryRtnM2?: Matrix | null;
-      secondaryRtnM2?: Matrix | null;
-      /** notes of CDM covariances judged unusable (then maximum Pc) */
-      primaryDoubtful?: string | null;
-      secondaryDoubtful?: string | null;
-      hbrPrimaryM?: number | null;
-      hbrSecondaryM?: number | null;
-    },
-  ): RiskAssessment {
+  assess(e: Encounter, cdm?: CdmRiskInputs): RiskAssessment {
+    return assessEncounter(e, this.inputsOf(e, cdm));
+  }
+
+  /**
+   * Risks of many fresh encounters (a run's), in their order: the same assessments as assess(),
+   * shared among worker threads when there are many (core/risk/assessMany.ts). `workers`: as
+   * the screening's (default one per core).
+   */
+  async assessMany(encounters: readonly Encounter[], workers?: number): Promise<RiskAssessment[]> {
+    const jobs = encounters.map((encounter) => {
+      const inputs = this.inputsOf(encounter);
+      // A thread needs the history's statistics only, not the element sets behind them.
+      return { encounter, inputs: { ...inputs, primary: { ...inputs.primary, history: null }, secondary: { ...inputs.secondary, history: null } } };
+    });
+    return assessMany(jobs, workers);
+  }
+
+  private inputsOf(e: Encounter, cdm?: CdmRiskInputs): AssessInputs {
     // A stored event (ConjunctionEvent) names its run; a fresh encounter does not.
     const runId = 'runId' in e && typeof e.runId === 'string' ? e.runId : undefined;
-    return assessEncounter(e, {
+    return {
       primary: this.input(e.primary, e.primaryEpoch, e.tca, runId, cdm?.primaryRtnM2, cdm?.primaryDoubtful),
       secondary: this.input(e.secondary, e.secondaryEpoch, e.tca, runId, cdm?.secondaryRtnM2, cdm?.secondaryDoubtful),
       hbrPrimaryM: cdm?.hbrPrimaryM ?? this.hbrOf(e.primary),
       hbrSecondaryM: cdm?.hbrSecondaryM ?? this.hbrOf(e.secondary),
       ...(this.thresholds ? { thresholds: this.thresholds } : {}),
       ...(this.options.encounterModel ? { encounterModel: this.options.encounterModel } : {}),
-    });
+    };
   }
+}
+
+/** What a received CDM gives an assessment (app/cdmRisk.ts maps a message to it). */
+export interface CdmRiskInputs {
+  primaryRtnM2?: Matrix | null;
+  secondaryRtnM2?: Matrix | null;
+  /** notes of CDM covariances judged unusable (then maximum Pc) */
+  primaryDoubtful?: string | null;
+  secondaryDoubtful?: string | null;
+  hbrPrimaryM?: number | null;
+  hbrSecondaryM?: number | null;
 }

@@ -1,6 +1,6 @@
 import type { Instant } from '../core/time/instant.js';
 import { KeepclearError } from '../core/errors.js';
-import { runScreening } from '../core/screening/run.js';
+import { runScreening, type ScreeningOutcome } from '../core/screening/run.js';
 import type { ScreeningSettings } from '../core/screening/types.js';
 import type { ConjunctionEvent } from '../core/events/index.js';
 import {
@@ -17,6 +17,7 @@ import {
   type KeepclearDb,
   type RunEphemeris,
   type RunRecord,
+  type EphemerisSummary,
 } from '../db/index.js';
 import { chooseEphemerides } from './ephemerisChoice.js';
 import { RiskContext } from './risk.js';
@@ -106,11 +107,40 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
   // An ephemeris's covariance block, when it has one, is that primary's covariance (app/risk.ts).
   const risk = new RiskContext(db, new Map([...choice.used].map(([id, u]) => [id, u.trajectory])));
   phase('screening');
-  const events = outcome.encounters.map((e) => ({ ...e, risk: risk.assess(e) }));
+  const linked = await assessAndStore(db, runId, outcome, risk, req, choice.used, phase);
+  // Stored: let the ~10⁵ encounters of an all-vs-all run go before the events are read back.
+  outcome.encounters.length = 0;
+  const result = {
+    run: getRun(db, runId)!,
+    events: eventsOfRun(db, runId),
+    linked,
+    ephemerides: runEphemerides(db, runId),
+    notes: choice.notes,
+  };
+  phase('read back');
+  return result;
+}
+
+/**
+ * The risk of each encounter, then the run stored and linked in one transaction. A function of
+ * its own so that the encounters and their assessed copies are garbage once it returns (an
+ * all-vs-all run holds ~10⁵), before the stored events are read back.
+ */
+async function assessAndStore(
+  db: KeepclearDb,
+  runId: string,
+  outcome: ScreeningOutcome,
+  risk: RiskContext,
+  req: ScreenRequest,
+  used: ReadonlyMap<string, { readonly summary: EphemerisSummary }>,
+  phase: (name: string) => void,
+): Promise<LinkOutcome> {
+  const risks = await risk.assessMany(outcome.encounters, req.workers);
+  const events = outcome.encounters.map((e, n) => ({ ...e, risk: risks[n]! }));
   phase('risk');
   const linked = inTransaction(db, () => {
     if (req.dataAt !== undefined) setRunDataAt(db, runId, req.dataAt);
-    for (const u of choice.used.values()) recordRunEphemeris(db, runId, u.summary);
+    for (const u of used.values()) recordRunEphemeris(db, runId, u.summary);
     finishRun(db, runId, {
       status: outcome.cancelled ? 'cancelled' : 'done',
       wallMs: outcome.wallMs,
@@ -121,15 +151,7 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
     return linkRun(db, runId);
   });
   phase('store and link');
-  const result = {
-    run: getRun(db, runId)!,
-    events: eventsOfRun(db, runId),
-    linked,
-    ephemerides: runEphemerides(db, runId),
-    notes: choice.notes,
-  };
-  phase('read back');
-  return result;
+  return linked;
 }
 
 export const daysAfter = (start: Instant, days: number): Instant => (start + days * 86_400_000) as Instant;
