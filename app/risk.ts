@@ -111,10 +111,21 @@ export class RiskContext {
    * the screening's (default one per core).
    */
   async assessMany(encounters: readonly Encounter[], workers?: number): Promise<RiskAssessment[]> {
-    const jobs = encounters.map((encounter) => {
-      const inputs = this.inputsOf(encounter);
-      // A thread needs the history's statistics only, not the element sets behind them.
-      return { encounter, inputs: { ...inputs, primary: { ...inputs.primary, history: null }, secondary: { ...inputs.secondary, history: null } } };
+    // A job is copied to a thread field by field: only what the assessment reads.
+    const slim = (c: CovarianceInput): CovarianceInput => ({
+      ...c,
+      history: null,
+      elements: c.elements ? { epoch: c.elements.epoch, meanMotionRevPerDay: c.elements.meanMotionRevPerDay, eccentricity: c.elements.eccentricity } : null,
+    });
+    const jobs = encounters.map((e) => {
+      const inputs = this.inputsOf(e);
+      return {
+        encounter: {
+          tca: e.tca, missKm: e.missKm, primaryState: e.primaryState, secondaryState: e.secondaryState,
+          primaryEpoch: e.primaryEpoch, secondaryEpoch: e.secondaryEpoch,
+        },
+        inputs: { ...inputs, primary: slim(inputs.primary), secondary: slim(inputs.secondary) },
+      };
     });
     return assessMany(jobs, workers);
   }

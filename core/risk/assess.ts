@@ -40,7 +40,7 @@ export interface CovarianceInput {
    */
   readonly historyStats?: HistorySample | null;
   /** the element set used for the encounter (gives regime and age for the default table) */
-  readonly elements?: ElementSet | null;
+  readonly elements?: Pick<ElementSet, 'epoch' | 'meanMotionRevPerDay' | 'eccentricity'> | null;
   /** regime when no element set is at hand (e.g. an ephemeris object) */
   readonly regime?: Regime | null;
   /**
@@ -65,6 +65,9 @@ export interface AssessInputs {
    */
   readonly encounterModel?: 'auto' | '2d';
 }
+
+/** What an assessment reads of an encounter. */
+export type EncounterAtTca = Pick<Encounter, 'tca' | 'missKm' | 'primaryState' | 'secondaryState' | 'primaryEpoch' | 'secondaryEpoch'>;
 
 /** pcMethod names (JSON contract field `pcMethod`). */
 export const PC_METHOD_3D = '3d-coppola';
@@ -142,7 +145,7 @@ function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch:
  * zero, non-finite, asymmetric; or the projected 2×2 is singular): maximum Pc over an isotropic
  * covariance of unknown size (Alfano 2005), which is an upper bound and says so in pcMethod.
  */
-export function assessEncounter(encounter: Encounter, inputs: AssessInputs): RiskAssessment {
+export function assessEncounter<E extends EncounterAtTca>(encounter: E, inputs: AssessInputs): RiskAssessment {
   const thresholds = { ...DEFAULT_TIER_THRESHOLDS, ...inputs.thresholds };
   const hbr = combinedHbr(inputs.hbrPrimaryM, inputs.hbrSecondaryM);
   const p = resolve(inputs.primary, encounter.primaryState, encounter.tca, encounter.primaryEpoch, 'primary');

@@ -7,15 +7,18 @@
 import { wrap, releaseProxy } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { availableParallelism } from 'node:os';
-import type { Encounter, RiskAssessment } from '../events/index.js';
+import type { RiskAssessment } from '../events/index.js';
 import { startWorkers } from '../workers/entry.js';
-import { assessEncounter, type AssessInputs } from './assess.js';
+import { assessEncounter, type AssessInputs, type EncounterAtTca } from './assess.js';
 import type { RiskWorkerApi } from './worker.js';
 
-/** One encounter and what its assessment needs (inputs small enough to send to a thread:
- * history given as historyStats, not as the element sets). */
+/**
+ * One encounter and what its assessment needs, no more: a job is copied to a thread, and the
+ * copy costs by the field (history given as historyStats, not as the element sets; the element
+ * set as the three numbers the default table reads).
+ */
 export interface RiskJob {
-  readonly encounter: Encounter;
+  readonly encounter: EncounterAtTca;
   readonly inputs: AssessInputs;
 }
 
