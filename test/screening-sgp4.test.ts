@@ -188,6 +188,43 @@ describe('LEO: dense shell near 550 km, 1 primary, 8 h, sphere 30 km', () => {
   });
 });
 
+describe('LEO co-orbiting drifters: slow closing from far, 1 day, sphere 5 km', () => {
+  // The distance scan steps by how fast the distance can close (pairFilter closingStepS): for
+  // these pairs, nearly in the primary's plane and closing at metres per second from tens of
+  // km, it takes steps of minutes. Every approach a 1-s brute force sees must still be found.
+  it('finds every brute-force event', async () => {
+    const rng = new Rng(550_2026);
+    const start = START, end = START + DAY;
+    const primaryOrbit: Orbit = { aKm: RE_WGS72 + 550, e: 0.0002, iDeg: 53, raanDeg: 40, argpDeg: 90, uDeg: 10, bstar: 5e-5 };
+    const sets: ElementSet[] = [elementSet('30000', start - DAY / 2, primaryOrbit, start)];
+    const n = (2 * Math.PI) / (2 * Math.PI * Math.sqrt(primaryOrbit.aKm ** 3 / 398600.8)); // rad/s
+    for (let k = 0; k < 16; k++) {
+      // 0.2–1.2 km higher or lower: along-track drift 1.5·n·Δa (0.3–2 m/s, 30–170 km a day);
+      // start a fraction of the day's drift away, on the side that closes.
+      const dA = (k % 2 === 0 ? 1 : -1) * rng.uniform(0.2, 1.2);
+      const driftKm = 1.5 * n * Math.abs(dA) * (DAY / 1000);
+      const aheadKm = Math.sign(dA) * driftKm * rng.uniform(0.1, 0.9);
+      sets.push(
+        elementSet(
+          String(30001 + k),
+          start - DAY / 2,
+          {
+            ...primaryOrbit,
+            aKm: primaryOrbit.aKm + dA,
+            e: rng.uniform(0, 0.0006),
+            argpDeg: deg(rng),
+            raanDeg: primaryOrbit.raanDeg + rng.uniform(-0.02, 0.02),
+            iDeg: primaryOrbit.iDeg + rng.uniform(-0.02, 0.02),
+            uDeg: primaryOrbit.uDeg + (aheadKm / primaryOrbit.aKm) * (180 / Math.PI),
+          },
+          start,
+        ),
+      );
+    }
+    await checkAgainstReference('LEO co-orbiting drifters, 17 objects, 1 day, 5 km', sets, ['30000'], start, end, 5, 8);
+  });
+});
+
 describe('GEO: primary in a belt cluster with small spacing, 1 day, sphere 200 km', () => {
   it('finds every brute-force event, including minima on the window edges', async () => {
     const rng = new Rng(42164);

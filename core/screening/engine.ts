@@ -12,7 +12,7 @@ import { padClipMerge, type Regions } from './regions.js';
 import { primaryBlockNormals, secondaryBlocks, type SecondaryBlocks } from './secondaryWindows.js';
 import { findEncounters, PropagationError } from './refine.js';
 import { volumeBoundKm } from './geometry.js';
-import { MU_EARTH_WGS72 } from '../units.js';
+import { MU_EARTH_WGS72, R_EARTH_WGS72 } from '../units.js';
 import type { FlaggedObject } from './types.js';
 import type { Encounter } from '../events/index.js';
 import type { ScreeningObject, WindowSettings } from './screeningObject.js';
@@ -26,6 +26,27 @@ export { MODEL_MARGIN_MS } from './validity.js';
 /** Padding of the element-set radius band (see coarseRadiusBand). */
 const COARSE_RADIUS_PAD_KM = 60;
 const COARSE_RADIUS_PAD_FRACTION = 0.01;
+/**
+ * Period (min) from which an orbit gets the deep-space pad: SGP4 switches to its deep-space
+ * theory at 225 min (Hoots & Roehrich 1980, Spacetrack Report No. 3; from memory), less 5 min
+ * for the difference between the element set's (Kozai) mean motion and SGP4's recovered one.
+ */
+const DEEP_SPACE_PERIOD_MIN = 220;
+/** The pad's drag allowance holds for windows up to this long (ms; a week plus a day of margin)… */
+const COARSE_MAX_WINDOW_MS = 8 * 86_400_000;
+/** …for |B*| up to this (1/earth radii)… */
+const COARSE_MAX_BSTAR = 1e-3;
+/**
+ * …for near-Earth perigees at least this high (km): lower ones sink by more than the pad in a
+ * week (a published verification set at 16.5 rev/day, B* 1.9e-4, falls 74 km below its element-set perigee in a week)…
+ */
+const COARSE_MIN_PERIGEE_HEIGHT_KM = 300;
+/**
+ * …and for deep-space orbits up to this eccentricity: the Moon and Sun move the apogee of very
+ * eccentric orbits by thousands of km in a week (verification sets 23333, e 0.97, and 33333,
+ * e 0.995, leave any band of a fixed fraction of a).
+ */
+const COARSE_MAX_DEEP_SPACE_E = 0.5;
 /** Range-rate sampling step in refinement: ≤ 1/16 of the shorter period, at most 60 s. */
 const REFINE_MAX_STEP_MS = 60_000;
 
@@ -111,7 +132,8 @@ export class ScreeningSession {
     this.stats.pairs++;
     const d = volumeBoundKm(this.settings.volume);
     // Cheap apogee/perigee test on the element sets before any model is built.
-    const bp = coarseRadiusBand(p), bs = coarseRadiusBand(s);
+    const windowMs = this.settings.end - this.settings.start;
+    const bp = coarseRadiusBand(p, windowMs), bs = coarseRadiusBand(s, windowMs);
     if (bp && bs && Math.max(bp[0], bs[0]) - Math.min(bp[1], bs[1]) > d) {
       this.stats.radiusPruned++;
       return [];
@@ -174,21 +196,27 @@ export class ScreeningSession {
 /**
  * Radius band of an object before any model is built. Sources without mean elements give their
  * own (a sampled primary: from its samples, padded). For SGP4, from the element set, padded so that no
- * osculating radius during a screening week can fall outside: 60 km covers SGP4's short-period
- * J2 terms (≤ ~20 km measured in LEO, see orbitModel) plus a week of drag decay at B* ≤ 0.01;
- * 1 % of a covers lunar–solar changes of e for deep-space orbits (≤ ~1e-3 per week).
+ * osculating radius during the window can fall outside: 60 km covers SGP4's short-period
+ * J2 terms (≤ ~20 km measured in LEO, see orbitModel), its long-period J3 terms (≤ ~8 km:
+ * ½·|J3/J2|·sin i / p in e, times a) and a week of drag decay at |B*| ≤ 1e-3 from a perigee at 300 km or higher. Deep-space orbits
+ * (period ≥ 225 min, where SGP4 adds lunar–solar terms) also get 1 % of a: lunar–solar changes
+ * of e are ≤ ~1e-3 per week. Outside what the pad was sized for (a window over
+ * COARSE_MAX_WINDOW_MS, |B*| over COARSE_MAX_BSTAR) there is no band: the models decide.
  * Null for sources with neither.
  */
-function coarseRadiusBand(o: ScreeningObject): [number, number] | null {
+export function coarseRadiusBand(o: ScreeningObject, windowMs: number): [number, number] | null {
   const es = o.trajectory.meanElementSource?.elements;
   if (!es) return o.radiusBandKm ? [o.radiusBandKm[0], o.radiusBandKm[1]] : null;
   if (!(es.meanMotionRevPerDay > 0 && es.eccentricity >= 0 && es.eccentricity < 1)) return null;
+  if (windowMs > COARSE_MAX_WINDOW_MS || !(Math.abs(es.bstar) <= COARSE_MAX_BSTAR)) return null;
   // Kepler's third law on the (Kozai) mean motion: differs from SGP4's recovered a by
   // O(J2) ≈ 1e-3·a, inside the pad; no SGP4 initialisation is needed for this test.
   const nRadS = (es.meanMotionRevPerDay * 2 * Math.PI) / 86_400;
   const a = Math.cbrt(MU_EARTH_WGS72 / (nRadS * nRadS));
   const e = es.eccentricity;
-  const pad = COARSE_RADIUS_PAD_KM + COARSE_RADIUS_PAD_FRACTION * a;
+  const deepSpace = 1440 / es.meanMotionRevPerDay >= DEEP_SPACE_PERIOD_MIN;
+  if (deepSpace ? e > COARSE_MAX_DEEP_SPACE_E : a * (1 - e) - R_EARTH_WGS72 < COARSE_MIN_PERIGEE_HEIGHT_KM) return null;
+  const pad = COARSE_RADIUS_PAD_KM + (deepSpace ? COARSE_RADIUS_PAD_FRACTION * a : 0);
   return [a * (1 - e) - pad, a * (1 + e) + pad];
 }
 

@@ -4,8 +4,16 @@ import { buildSgp4Model, exactModel, type OrbitModel } from './orbitModel.js';
 import type { ScreeningObject, WindowSettings } from './screeningObject.js';
 import { MODEL_MARGIN_MS, type Flags, type ValidityProbe } from './validity.js';
 
-/** Spacing of the sampled mean elements of the filter model (min): 12 h keeps ε honest (tested). */
-const MODEL_NODE_SPACING_MIN = 720;
+/**
+ * Spacing of the sampled mean elements of the filter model (min). Near-Earth SGP4's mean
+ * elements are polynomials in time (secular J2 rates, drag to t⁵): cubic interpolation over a
+ * day stays far inside ε, and half the nodes halve the cost of a model. Deep-space mean
+ * elements carry resonance and lunar–solar terms with periods of days: 12 h. Both keep ε
+ * honest at random instants (test/screening-model-bound.test.ts).
+ */
+export const MODEL_NODE_SPACING_MIN = { nearEarth: 1440, deepSpace: 720 } as const;
+export const modelNodeSpacingMin = (satrec: { method: string }): number =>
+  satrec.method === 'd' ? MODEL_NODE_SPACING_MIN.deepSpace : MODEL_NODE_SPACING_MIN.nearEarth;
 
 /**
  * Filter models (orbitModel.ts), built on first use and kept for the run: SGP4 mean-element
@@ -28,14 +36,15 @@ export class ModelCache {
       const until = this.validity.validUntil(o);
       if (until === null) m = 'bad-elements';
       else if (src) {
+        const spacing = modelNodeSpacingMin(src.satrec);
         m = src.initFailure ?? buildSgp4Model(
           src.satrec,
           src.elements.epoch,
           (this.settings.start - MODEL_MARGIN_MS) as Instant,
           until as Instant,
-          MODEL_NODE_SPACING_MIN,
+          spacing,
         );
-        this.stats.sgp4Evaluations += 2 * Math.ceil((this.settings.end - this.settings.start) / 60_000 / MODEL_NODE_SPACING_MIN) + 3;
+        this.stats.sgp4Evaluations += 3 * Math.ceil((this.settings.end - this.settings.start) / 60_000 / spacing) + 1;
       } else {
         m = exactModel(o.trajectory, o.vMaxKmS ?? 15, o.radiusBandKm);
       }

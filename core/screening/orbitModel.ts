@@ -15,6 +15,11 @@ const MS_PER_MIN = 60_000;
 const EPS_SAFETY = 1.5;
 /** Floor added to the measured error (km): covers rounding and unsampled interpolation error. */
 const EPS_FLOOR_KM = 2;
+/**
+ * Added to the measured velocity error (km/s): SGP4's velocity is not exactly dr/dt (gap
+ * measured up to 2e-3 km/s on GTO orbits, spatial/sampling.ts) — 5× that, plus rounding.
+ */
+const VELOCITY_GAP_KMS = 0.01;
 
 /**
  * A cheap stand-in for SGP4 used only to dismiss pairs: SGP4's own mean elements sampled at
@@ -33,6 +38,13 @@ export interface OrbitModel {
   readonly vMaxKmS: number;
   /** Writes the approximate TEME position (km) at t into out[off..off+2]. */
   positionInto(t: Instant, out: Float64Array, off: number): void;
+  /**
+   * Bound of |dr/dt − model velocity| (km/s) over the span, when the model has a velocity
+   * (stateInto); measured like epsKm, plus SGP4's own gap between its velocity and dr/dt.
+   */
+  readonly velocityErrKmS?: number;
+  /** Position (km) and velocity (km/s) at t into out[off..off+5]; present with velocityErrKmS. */
+  stateInto?(t: Instant, out: Float64Array, off: number): void;
   /** Unit normal of the mean orbit plane at t. */
   normalInto(t: Instant, out: Float64Array, off: number): void;
   /**
@@ -52,6 +64,8 @@ export interface OrbitModel {
 const N_EL = 6;
 /** Fractional part of the golden ratio: successive multiples spread evenly over [0, 1). */
 const GOLDEN = 0.6180339887498949;
+/** Time per pair of phase samples (min): one pair per 12 h of span. */
+const PHASE_PAIR_SPACING_MIN = 720;
 /** Eccentricity above which the error is also measured around perigee passages. */
 const PERIGEE_SAMPLING_MIN_E = 0.05;
 /** Perigee samples are spaced by the period over this (5 samples across ±2/50 of an orbit). */
@@ -73,6 +87,7 @@ export function buildSgp4Model(
   const t0Min = (start - epoch) / MS_PER_MIN; // minutes since epoch of node 0
   const el = new Float64Array(nNodes * N_EL);
   const pos = new Float64Array(nNodes * 3);
+  const vel = new Float64Array(nNodes * 3);
   let vMax = 0;
   for (let k = 0; k < nNodes; k++) {
     const pv = sgp4(satrec, t0Min + k * stepMin);
@@ -96,15 +111,19 @@ export function buildSgp4Model(
     pos[k * 3] = pv.position.x;
     pos[k * 3 + 1] = pv.position.y;
     pos[k * 3 + 2] = pv.position.z;
+    vel[k * 3] = pv.velocity.x;
+    vel[k * 3 + 1] = pv.velocity.y;
+    vel[k * 3 + 2] = pv.velocity.z;
     vMax = Math.max(vMax, Math.hypot(pv.velocity.x, pv.velocity.y, pv.velocity.z));
   }
   const model = new KeplerModel(start, stepMin * MS_PER_MIN, nNodes, el);
   // Measure |model − SGP4| at nodes and mid-nodes.
-  const buf = new Float64Array(3);
-  let err = 0;
+  const buf = new Float64Array(6);
+  let err = 0, verr = 0;
   for (let k = 0; k < nNodes; k++) {
-    model.positionInto((start + k * stepMin * MS_PER_MIN) as Instant, buf, 0);
+    model.stateInto((start + k * stepMin * MS_PER_MIN) as Instant, buf, 0);
     err = Math.max(err, Math.hypot(buf[0]! - pos[k * 3]!, buf[1]! - pos[k * 3 + 1]!, buf[2]! - pos[k * 3 + 2]!));
+    verr = Math.max(verr, Math.hypot(buf[3]! - vel[k * 3]!, buf[4]! - vel[k * 3 + 1]!, buf[5]! - vel[k * 3 + 2]!));
   }
   // Between nodes: SGP4's periodic terms vary with the orbital phase, and the node spacing can
   // be a near-multiple of the period (phase-locked samples all see the same error, measured: an
@@ -112,15 +131,20 @@ export function buildSgp4Model(
   // also sampled at two orbital phases apart by half a period, stepping by the golden ratio from
   // interval to interval (low-discrepancy coverage of the phase), around its middle where the
   // interpolation error is largest.
+  // Intervals longer than PHASE_PAIR_SPACING_MIN get more pairs, spread over the interval, so
+  // the phase coverage per unit time (and so ε's honesty) does not depend on the node spacing.
+  const pairs = Math.max(1, Math.round(nodeSpacingMin / PHASE_PAIR_SPACING_MIN));
   for (let k = 0; k < nIntervals; k++) {
-    const periodMin = Math.min(periodMinutes(el[k * N_EL]!), stepMin);
-    for (let j = 0; j < 2; j++) {
-      const phase = (k * GOLDEN + j / 2) % 1;
-      const tm = t0Min + (k + 0.5) * stepMin + (phase - 0.5) * periodMin;
+    const periodMin = Math.min(periodMinutes(el[k * N_EL]!), stepMin / pairs);
+    for (let m = 0; m < 2 * pairs; m++) {
+      const pair = k * pairs + (m >> 1);
+      const phase = (pair * GOLDEN + (m & 1) / 2) % 1;
+      const tm = t0Min + (k + ((m >> 1) + 0.5) / pairs) * stepMin + (phase - 0.5) * periodMin;
       const pv = sgp4(satrec, tm);
       if (!pv) return reasonForSgp4Code(satrec.error);
-      model.positionInto((start + (tm - t0Min) * MS_PER_MIN) as Instant, buf, 0);
+      model.stateInto((start + (tm - t0Min) * MS_PER_MIN) as Instant, buf, 0);
       err = Math.max(err, Math.hypot(buf[0]! - pv.position.x, buf[1]! - pv.position.y, buf[2]! - pv.position.z));
+      verr = Math.max(verr, Math.hypot(buf[3]! - pv.velocity.x, buf[4]! - pv.velocity.y, buf[5]! - pv.velocity.z));
       vMax = Math.max(vMax, Math.hypot(pv.velocity.x, pv.velocity.y, pv.velocity.z));
     }
   }
@@ -141,8 +165,9 @@ export function buildSgp4Model(
         if (tMs > end) continue;
         const pv = sgp4(satrec, tm);
         if (!pv) continue; // a failure here is judged where the object is used
-        model.positionInto(tMs as Instant, buf, 0);
+        model.stateInto(tMs as Instant, buf, 0);
         err = Math.max(err, Math.hypot(buf[0]! - pv.position.x, buf[1]! - pv.position.y, buf[2]! - pv.position.z));
+        verr = Math.max(verr, Math.hypot(buf[3]! - pv.velocity.x, buf[4]! - pv.velocity.y, buf[5]! - pv.velocity.z));
       }
     }
   }
@@ -155,7 +180,7 @@ export function buildSgp4Model(
     // vis-viva at perigee, WGS-72 μ, as a speed bound of the mean orbit
     vBound = Math.max(vBound, Math.sqrt((398600.8 / a) * ((1 + e) / (1 - e))));
   }
-  model.finish(eps, rMin - eps, rMax + eps, Math.max(vMax, vBound) * 1.02 + 0.05);
+  model.finish(eps, rMin - eps, rMax + eps, Math.max(vMax, vBound) * 1.02 + 0.05, verr * EPS_SAFETY + VELOCITY_GAP_KMS);
   return model;
 }
 
@@ -169,6 +194,7 @@ class KeplerModel implements OrbitModel {
   rMinKm = 0;
   rMaxKm = Infinity;
   vMaxKmS = Infinity;
+  velocityErrKmS = Infinity;
   private readonly el: Float64Array;
   private readonly w = new Float64Array(4);
 
@@ -181,7 +207,8 @@ class KeplerModel implements OrbitModel {
     this.el = el;
   }
 
-  finish(eps: number, rMin: number, rMax: number, vMax: number): void {
+  finish(eps: number, rMin: number, rMax: number, vMax: number, velocityErr: number): void {
+    this.velocityErrKmS = velocityErr;
     this.epsKm = eps;
     this.rMinKm = rMin;
     this.rMaxKm = rMax;
@@ -214,6 +241,15 @@ class KeplerModel implements OrbitModel {
   }
 
   positionInto(t: Instant, out: Float64Array, off: number): void {
+    this.kepler(t, out, off, false);
+  }
+
+  /** Position and the Keplerian velocity of the interpolated elements (element rates left out: measured in velocityErrKmS). */
+  stateInto(t: Instant, out: Float64Array, off: number): void {
+    this.kepler(t, out, off, true);
+  }
+
+  private kepler(t: Instant, out: Float64Array, off: number, withVelocity: boolean): void {
     const k0 = this.weights(t);
     const a = this.elem(k0, 0);
     let e = this.elem(k0, 1);
@@ -229,8 +265,9 @@ class KeplerModel implements OrbitModel {
       E -= d;
       if (Math.abs(d) < 1e-12) break;
     }
-    const xp = a * (Math.cos(E) - e);
-    const yp = a * Math.sqrt(1 - e * e) * Math.sin(E);
+    const cE = Math.cos(E), sE = Math.sin(E), b = Math.sqrt(1 - e * e);
+    const xp = a * (cE - e);
+    const yp = a * b * sE;
     const cO = Math.cos(node), sO = Math.sin(node);
     const ci = Math.cos(inc), si = Math.sin(inc);
     const cw = Math.cos(argp), sw = Math.sin(argp);
@@ -241,6 +278,13 @@ class KeplerModel implements OrbitModel {
     out[off] = px * xp + qx * yp;
     out[off + 1] = py * xp + qy * yp;
     out[off + 2] = pz * xp + qz * yp;
+    if (!withVelocity) return;
+    // dE/dt = n/(1 − e cos E), n = √(μ/a³) (WGS-72 μ, as periodMinutes)
+    const Edot = Math.sqrt(398600.8 / (a * a * a)) / (1 - e * cE);
+    const vxp = -a * sE * Edot, vyp = a * b * cE * Edot;
+    out[off + 3] = px * vxp + qx * vyp;
+    out[off + 4] = py * vxp + qy * vyp;
+    out[off + 5] = pz * vxp + qz * vyp;
   }
 
   private nodeNormals: Float64Array | null = null;

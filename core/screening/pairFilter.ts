@@ -2,7 +2,7 @@ import type { Instant } from '../time/instant.js';
 import type { OrbitModel } from './orbitModel.js';
 import type { StateGrid } from './primaryGrid.js';
 import { TRACK_STRIDE } from './planarTrack.js';
-import { secondaryPlaneWindows, type SecondaryBlocks } from './secondaryWindows.js';
+import { BLOCK_NORMAL_LERP_RAD, blockNormalInto, secondaryPlaneWindows, type SecondaryBlocks } from './secondaryWindows.js';
 import { intersectRegions, pushRegion, type Regions } from './regions.js';
 
 export type { Regions } from './regions.js';
@@ -59,14 +59,18 @@ export function candidateRegions(
     planeRegions = [];
     // Quick test per window before the closed form: g = n_S·r_P at the window's middle, and
     // |ġ| ≤ v_P + |ṅ_S|·r_P over its half-width (same threshold as planeWindows).
-    const thrP = dKm + s.epsKm + GRID_EPS_KM + NORMAL_INTERP_KM;
+    // With the secondary's block tables at hand its normal comes from them (blockNormalInto),
+    // within BLOCK_NORMAL_LERP_RAD of the model's; otherwise from the model's own table.
+    const sb = shared?.blocks && shared.blocks.start === start && shared.blocks.end === end ? shared.blocks : null;
+    const thrP = dKm + s.epsKm + GRID_EPS_KM + (sb ? BLOCK_NORMAL_LERP_RAD * grid.maxRadiusKm() + NORMAL_INTERP_KM : NORMAL_INTERP_KM);
     const gdot = grid.vMaxKmS + NORMAL_RATE_BOUND * grid.maxRadiusKm();
     for (let k = 0; k < w.length; k += 2) {
       const a = Math.max(start, w[k]!), b = Math.min(end, w[k + 1]!);
       if (b < a) continue;
       const tm = 0.5 * (a + b);
       grid.positionInto(tm, POS, 0);
-      s.tabledNormalInto(tm as Instant, NRM, 0);
+      if (sb) blockNormalInto(sb, tm, NRM);
+      else s.tabledNormalInto(tm as Instant, NRM, 0);
       const g = Math.abs(NRM[0]! * POS[0]! + NRM[1]! * POS[1]! + NRM[2]! * POS[2]!);
       if (stats) stats.planeVisits++;
       if (g - gdot * ((b - a) / 2000) > thrP) continue;
@@ -77,34 +81,83 @@ export function candidateRegions(
   const out: Regions = [];
   const pos = POS;
   const lRate = grid.vMaxKmS + s.vMaxKmS;
+  // Second bound on how fast the distance can close (see closingStepS): needs the model's
+  // velocity, and both objects on SGP4 (an ephemeris or manoeuvred primary may thrust, and its
+  // acceleration has no bound here).
+  const withVelocity =
+    s.stateInto !== undefined && Number.isFinite(s.velocityErrKmS ?? NaN) && p?.stateInto !== undefined && Number.isFinite(p.velocityErrKmS ?? NaN);
+  const rLow = Math.min(grid.minRadiusKm(), s.rMinKm);
+  const dvBound = (s.velocityErrKmS ?? 0) + GRID_DV_KMS;
   for (let r = 0; r < planeRegions.length; r += 2) {
     const a = planeRegions[r]!, b = planeRegions[r + 1]!;
     let t = a;
     let inside = -1; // start of the current "maybe within D" run, or −1
     while (t <= b) {
-      grid.positionInto(t, pos, 0);
-      s.positionInto(t as Instant, pos, 3);
+      if (withVelocity) {
+        grid.stateInto(t, pos, 0);
+        s.stateInto!(t as Instant, pos, 6);
+      } else {
+        grid.positionInto(t, pos, 0);
+        s.positionInto(t as Instant, pos, 6);
+      }
       if (stats) stats.distanceVisits++;
-      const lb = Math.hypot(pos[0]! - pos[3]!, pos[1]! - pos[4]!, pos[2]! - pos[5]!) - s.epsKm - GRID_EPS_KM;
+      const sep = Math.hypot(pos[0]! - pos[6]!, pos[1]! - pos[7]!, pos[2]! - pos[8]!);
+      const lb = sep - s.epsKm - GRID_EPS_KM;
       if (!(lb > dKm)) {
         // NaN (unknown position) also lands here: never prune on missing information.
         if (inside < 0) inside = t;
         t += INSIDE_STEP_MS;
         continue;
       }
-      const clear = ((lb - dKm) / lRate) * 1000;
+      let clearS = (lb - dKm) / lRate;
+      if (withVelocity) {
+        const v0 = Math.hypot(pos[3]! - pos[9]!, pos[4]! - pos[10]!, pos[5]! - pos[11]!) + dvBound;
+        clearS = Math.max(clearS, closingStepS(lb - dKm, v0, sep + s.epsKm + GRID_EPS_KM, lRate, rLow));
+      }
       if (inside >= 0) {
         out.push(inside, t);
         inside = -1;
       }
-      t += Math.max(clear, 1);
+      t += Math.max(clearS * 1000, 1);
     }
     if (inside >= 0) out.push(inside, b);
   }
   return out;
 }
 
-const POS = new Float64Array(6);
+/**
+ * How long (s) the true distance surely stays above D, from the relative speed instead of the
+ * sum of speeds: for a nearly coplanar pair the distance changes far more slowly than
+ * v_P + v_S, and the plain bound made the scan crawl along whole weeks in steps of seconds.
+ * With a margin `slack` = lower bound − D, the true relative speed now ≤ v0 (model and grid
+ * velocities plus their error bounds) and the relative acceleration ≤ A, the distance cannot
+ * shrink by `slack` before v0·τ + ½·A·τ² = slack. A bounds the difference of the two
+ * accelerations: central gravity changes by at most 2μ/z³ per km of separation (the tidal
+ * tensor's largest eigenvalue, z the smallest radius on the segment between them, for a
+ * separation up to ρmax over the step), plus what SGP4 adds to central gravity for each object
+ * (measured ≤ 2.6e-5 km/s² over the synthetic catalogue; MAX_EXTRA_ACCEL_KMS2 is ~40× that).
+ * Capped at CLOSING_STEP_CAP_S, for which ρmax is sized; 0 when the bound does not apply.
+ */
+function closingStepS(slack: number, v0: number, sepUpper: number, lRate: number, rLowKm: number): number {
+  const rhoMax = sepUpper + lRate * CLOSING_STEP_CAP_S;
+  const z2 = rLowKm * rLowKm - (rhoMax * rhoMax) / 4;
+  if (!(z2 > 0)) return 0;
+  const z = Math.sqrt(z2);
+  const A = (2 * MU_KM3_S2 * rhoMax) / (z * z * z) + 2 * MAX_EXTRA_ACCEL_KMS2;
+  const tau = (2 * slack) / (v0 + Math.sqrt(v0 * v0 + 2 * A * slack)); // root of ½Aτ² + v0τ − slack
+  return Math.min(tau, CLOSING_STEP_CAP_S);
+}
+
+/** Longest step of the relative-speed bound (s): limits the separation growth it must allow for. */
+const CLOSING_STEP_CAP_S = 120;
+/** Bound of SGP4's acceleration beyond central gravity, per object (km/s²): see closingStepS. */
+const MAX_EXTRA_ACCEL_KMS2 = 1e-3;
+/** Bound of |dr/dt − grid velocity| for the primary (km/s): Hermite derivative error (≤ 1e-5) and SGP4's velocity gap (≤ 2e-3). */
+const GRID_DV_KMS = 0.01;
+/** WGS-72 μ (km³/s²), as the models use. */
+const MU_KM3_S2 = 398600.8;
+
+const POS = new Float64Array(12);
 const NRM = new Float64Array(3);
 
 /** Slack for radius and out-of-plane distance between grid points (km): ≤ v²h²/(8r) ≪ 1 km. */

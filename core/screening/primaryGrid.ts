@@ -19,6 +19,7 @@ export class StateGrid {
   ) {}
 
   private rMax = -1;
+  private rMin = -1;
   private planar: PlanarTrack | null = null;
   /** The grid in block-wise orbit-plane coordinates, built on first use. */
   track(): PlanarTrack {
@@ -37,6 +38,17 @@ export class StateGrid {
     return this.rMax;
   }
 
+  /** Lower bound of |r| over the grid (km), computed once (same 1-km pad as maxRadiusKm). */
+  minRadiusKm(): number {
+    if (this.rMin < 0) {
+      let m = Infinity;
+      const x = this.states;
+      for (let j = 0; j < this.count; j++) m = Math.min(m, Math.hypot(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
+      this.rMin = Math.max(0, m - 1);
+    }
+    return this.rMin;
+  }
+
   timeAt(j: number): number {
     return this.start + j * this.stepMs;
   }
@@ -52,6 +64,24 @@ export class StateGrid {
     const a = j * 6, b = a + 6, x = this.states;
     for (let c = 0; c < 3; c++) {
       out[off + c] = h00 * x[a + c]! + h10 * h * x[a + 3 + c]! + h01 * x[b + c]! + h11 * h * x[b + 3 + c]!;
+    }
+  }
+
+  /** Position (km) and velocity (km/s, the derivative of the same cubic) at t into out[off..off+5]. */
+  stateInto(t: number, out: Float64Array, off: number): void {
+    let j = Math.floor((t - this.start) / this.stepMs);
+    if (j < 0) j = 0;
+    if (j > this.count - 2) j = this.count - 2;
+    const h = this.stepMs / 1000;
+    const s = (t - this.start - j * this.stepMs) / this.stepMs;
+    const s2 = s * s, s3 = s2 * s;
+    const h00 = 2 * s3 - 3 * s2 + 1, h10 = s3 - 2 * s2 + s, h01 = -2 * s3 + 3 * s2, h11 = s3 - s2;
+    const d00 = (6 * s2 - 6 * s) / h, d10 = 3 * s2 - 4 * s + 1, d01 = (6 * s - 6 * s2) / h, d11 = 3 * s2 - 2 * s;
+    const a = j * 6, b = a + 6, x = this.states;
+    for (let c = 0; c < 3; c++) {
+      const p0 = x[a + c]!, v0 = x[a + 3 + c]!, p1 = x[b + c]!, v1 = x[b + 3 + c]!;
+      out[off + c] = h00 * p0 + h10 * h * v0 + h01 * p1 + h11 * h * v1;
+      out[off + 3 + c] = d00 * p0 + d10 * v0 + d01 * p1 + d11 * v1;
     }
   }
 }

@@ -73,6 +73,32 @@ export function secondaryBlocks(s: OrbitModel, start: number, end: number, reuse
   return { start, end, count, bnd, ctr };
 }
 
+/**
+ * The secondary's mean-plane normal at t, linear between the block boundaries' normals: no
+ * trigonometry and no interpolation weights per call. A normal turning at ≤ ω rad/s departs
+ * from its chord by ≤ (ω·BLOCK_MS)²/8 (2.6e-5 rad at ω = 2e-6 rad/s); see BLOCK_NORMAL_LERP_RAD.
+ */
+export function blockNormalInto(sb: SecondaryBlocks, t: number, out: Float64Array): void {
+  let b = Math.floor((t - sb.start) / BLOCK_MS);
+  if (b < 0) b = 0;
+  if (b > sb.count - 1) b = Math.max(0, sb.count - 1);
+  const t0 = blockEnd(sb.start, sb.end, b), t1 = blockEnd(sb.start, sb.end, b + 1);
+  const f = t1 > t0 ? (t - t0) / (t1 - t0) : 0;
+  const bnd = sb.bnd, o0 = b * BND, o1 = o0 + BND;
+  // n = (sin i·sin Ω, −sin i·cos Ω, cos i) from the boundary tables
+  const x0 = bnd[o0 + 6]! * bnd[o0 + 4]!, y0 = -bnd[o0 + 6]! * bnd[o0 + 3]!, z0 = bnd[o0 + 5]!;
+  const x1 = bnd[o1 + 6]! * bnd[o1 + 4]!, y1 = -bnd[o1 + 6]! * bnd[o1 + 3]!, z1 = bnd[o1 + 5]!;
+  out[0] = x0 + f * (x1 - x0);
+  out[1] = y0 + f * (y1 - y0);
+  out[2] = z0 + f * (z1 - z0);
+}
+
+/**
+ * Bound of the chord error of blockNormalInto (rad), twice (2e-6 rad/s × BLOCK_MS)²/8: J2 turns a
+ * mean plane at ≤ ~1e-6 rad/s (pairFilter's NORMAL_RATE_BOUND allows 2e-6).
+ */
+export const BLOCK_NORMAL_LERP_RAD = 2 * ((2e-6 * BLOCK_MS) / 1000) ** 2 / 8;
+
 /** The primary's mean-plane normal at every block boundary of [start, end] (3 per boundary). */
 export function primaryBlockNormals(p: OrbitModel, start: number, end: number): Float64Array {
   const count = Math.max(0, Math.ceil((end - start) / BLOCK_MS));
