@@ -2,7 +2,9 @@ import { basename } from 'node:path';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import { EphemerisTrajectory } from '../core/propagation/ephemeris.js';
 import type { Matrix } from '../core/math/linalg.js';
-import { assessEncounter, type CovarianceInput } from '../core/risk/assess.js';
+import { assessEncounter, type AssessInputs, type CovarianceInput } from '../core/risk/assess.js';
+import { assessMany } from '../core/risk/assessMany.js';
+import { historySample, type HistorySample } from '../core/risk/covarianceHistory.js';
 import type { TierThresholds } from '../core/risk/tiers.js';
 import type { Encounter, RiskAssessment } from '../core/events/index.js';
 import type { Instant } from '../core/time/instant.js';
@@ -54,6 +56,28 @@ export class RiskContext {
     return this.fromRuns.get(key)!;
   }
 
+  /** per object and screened epoch: the history up to that set and its statistics (computed once) */
+  private readonly upTo = new Map<string, { sets: ElementSet[]; stats: HistorySample | null }>();
+  /** hard-body radius per object (null: none stored) */
+  private readonly hbr = new Map<string, number | null>();
+
+  private historyUpTo(id: string, epoch: number): { sets: ElementSet[]; stats: HistorySample | null } {
+    const key = `${id}\u0000${epoch}`;
+    let h = this.upTo.get(key);
+    if (!h) {
+      // History up to the set used in the screening (later sets did not exist for it).
+      const sets = this.historyOf(id).filter((s) => s.epoch <= epoch + 1);
+      h = { sets, stats: historySample(sets) };
+      this.upTo.set(key, h);
+    }
+    return h;
+  }
+
+  private hbrOf(id: string): number | null {
+    if (!this.hbr.has(id)) this.hbr.set(id, getObject(this.db, id)?.hardBodyRadiusM ?? null);
+    return this.hbr.get(id)!;
+  }
+
   private historyOf(id: string): ElementSet[] {
     let h = this.history.get(id);
     if (!h) {
@@ -71,34 +95,62 @@ export class RiskContext {
     cdmRtnM2: Matrix | null | undefined,
     doubtful?: string | null,
   ): CovarianceInput {
-    // History up to the set used in the screening (later sets did not exist for it).
-    const h = this.historyOf(id).filter((s) => s.epoch <= epoch + 1);
+    const { sets: h, stats } = this.historyUpTo(id, epoch);
     const cov = this.ephemerisOf(id, runId)?.covarianceRtnAt(tca) ?? null;
     const ephemeris = cov ? { rtnM2: cov.rtnM2, source: `oem(${basename(cov.file)})`, note: cov.note } : null;
-    return { cdmRtnM2: cdmRtnM2 ?? null, cdmDoubtfulNote: doubtful ?? null, ephemeris, history: h, elements: h[h.length - 1] ?? null };
+    return { cdmRtnM2: cdmRtnM2 ?? null, cdmDoubtfulNote: doubtful ?? null, ephemeris, history: h, historyStats: stats, elements: h[h.length - 1] ?? null };
   }
 
-  assess(
-    e: Encounter,
-    cdm?: {
-      primaryRtnM2?: Matrix | null;
-      secondaryRtnM2?: Matrix | null;
-      /** notes of CDM covariances judged unusable (then maximum Pc) */
-      primaryDoubtful?: string | null;
-      secondaryDoubtful?: string | null;
-      hbrPrimaryM?: number | null;
-      hbrSecondaryM?: number | null;
-    },
-  ): RiskAssessment {
+  assess(e: Encounter, cdm?: CdmRiskInputs): RiskAssessment {
+    return assessEncounter(e, this.inputsOf(e, cdm));
+  }
+
+  /**
+   * Risks of many fresh encounters (a run's), in their order: the same assessments as assess(),
+   * shared among worker threads when there are many (core/risk/assessMany.ts). `workers`: as
+   * the screening's (default one per core).
+   */
+  async assessMany(encounters: readonly Encounter[], workers?: number): Promise<RiskAssessment[]> {
+    // A job is copied to a thread field by field: only what the assessment reads.
+    const slim = (c: CovarianceInput): CovarianceInput => ({
+      ...c,
+      history: null,
+      elements: c.elements ? { epoch: c.elements.epoch, meanMotionRevPerDay: c.elements.meanMotionRevPerDay, eccentricity: c.elements.eccentricity } : null,
+    });
+    const jobs = encounters.map((e) => {
+      const inputs = this.inputsOf(e);
+      return {
+        encounter: {
+          tca: e.tca, missKm: e.missKm, primaryState: e.primaryState, secondaryState: e.secondaryState,
+          primaryEpoch: e.primaryEpoch, secondaryEpoch: e.secondaryEpoch,
+        },
+        inputs: { ...inputs, primary: slim(inputs.primary), secondary: slim(inputs.secondary) },
+      };
+    });
+    return assessMany(jobs, workers);
+  }
+
+  private inputsOf(e: Encounter, cdm?: CdmRiskInputs): AssessInputs {
     // A stored event (ConjunctionEvent) names its run; a fresh encounter does not.
     const runId = 'runId' in e && typeof e.runId === 'string' ? e.runId : undefined;
-    return assessEncounter(e, {
+    return {
       primary: this.input(e.primary, e.primaryEpoch, e.tca, runId, cdm?.primaryRtnM2, cdm?.primaryDoubtful),
       secondary: this.input(e.secondary, e.secondaryEpoch, e.tca, runId, cdm?.secondaryRtnM2, cdm?.secondaryDoubtful),
-      hbrPrimaryM: cdm?.hbrPrimaryM ?? getObject(this.db, e.primary)?.hardBodyRadiusM ?? null,
-      hbrSecondaryM: cdm?.hbrSecondaryM ?? getObject(this.db, e.secondary)?.hardBodyRadiusM ?? null,
+      hbrPrimaryM: cdm?.hbrPrimaryM ?? this.hbrOf(e.primary),
+      hbrSecondaryM: cdm?.hbrSecondaryM ?? this.hbrOf(e.secondary),
       ...(this.thresholds ? { thresholds: this.thresholds } : {}),
       ...(this.options.encounterModel ? { encounterModel: this.options.encounterModel } : {}),
-    });
+    };
   }
+}
+
+/** What a received CDM gives an assessment (app/cdmRisk.ts maps a message to it). */
+export interface CdmRiskInputs {
+  primaryRtnM2?: Matrix | null;
+  secondaryRtnM2?: Matrix | null;
+  /** notes of CDM covariances judged unusable (then maximum Pc) */
+  primaryDoubtful?: string | null;
+  secondaryDoubtful?: string | null;
+  hbrPrimaryM?: number | null;
+  hbrSecondaryM?: number | null;
 }

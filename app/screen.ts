@@ -1,6 +1,6 @@
 import type { Instant } from '../core/time/instant.js';
 import { KeepclearError } from '../core/errors.js';
-import { runScreening } from '../core/screening/run.js';
+import { runScreening, type ScreeningOutcome } from '../core/screening/run.js';
 import type { ScreeningSettings } from '../core/screening/types.js';
 import type { ConjunctionEvent } from '../core/events/index.js';
 import {
@@ -17,6 +17,7 @@ import {
   type KeepclearDb,
   type RunEphemeris,
   type RunRecord,
+  type EphemerisSummary,
 } from '../db/index.js';
 import { chooseEphemerides } from './ephemerisChoice.js';
 import { RiskContext } from './risk.js';
@@ -32,6 +33,11 @@ export interface ScreenRequest {
    * sets it, so series order and date the runs as they happened.
    */
   readonly dataAt?: Instant;
+  /**
+   * Called as each phase ends (screening, risk, store and link, read back) with its wall time
+   * in ms: the benchmark's phase timings (KEEPCLEAR_PHASES=1 on the command line).
+   */
+  readonly onPhase?: (phase: string, ms: number) => void;
 }
 
 export interface ScreenResult {
@@ -54,6 +60,7 @@ export interface ScreenResult {
  * A cancelled run is stored as cancelled with what was found so far.
  */
 export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promise<ScreenResult> {
+  let mark = performance.now();
   const sets = latestElementSets(db);
   if (sets.length === 0) {
     throw new KeepclearError('NOT_FOUND', 'the database holds no element sets; import a catalogue first (keepclear import FILE)');
@@ -69,6 +76,12 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
       throw new KeepclearError('NOT_FOUND', `no element set or covering ephemeris for primary ${missing.join(', ')}; import one first or check the id`);
     }
   }
+  const phase = (name: string): void => {
+    const now = performance.now();
+    req.onPhase?.(name, now - mark);
+    mark = now;
+  };
+  phase('load');
   // The screening starts first and the run row is written while the workers work: the main
   // thread would otherwise spend the fingerprint's time (~0.1 s for 30,000 sets) before any
   // worker starts. The fingerprint is of the sets already loaded (no second catalogue read).
@@ -103,10 +116,41 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
   // which message is "the same conjunction" is the series rule's answer.
   // An ephemeris's covariance block, when it has one, is that primary's covariance (app/risk.ts).
   const risk = new RiskContext(db, new Map([...choice.used].map(([id, u]) => [id, u.trajectory])));
-  const events = outcome.encounters.map((e) => ({ ...e, risk: risk.assess(e) }));
+  phase('screening');
+  const linked = await assessAndStore(db, runId, outcome, risk, req, choice.used, phase);
+  // Stored: let the ~10⁵ encounters of an all-vs-all run go before the events are read back.
+  outcome.encounters.length = 0;
+  const result = {
+    run: getRun(db, runId)!,
+    events: eventsOfRun(db, runId),
+    linked,
+    ephemerides: runEphemerides(db, runId),
+    notes: choice.notes,
+  };
+  phase('read back');
+  return result;
+}
+
+/**
+ * The risk of each encounter, then the run stored and linked in one transaction. A function of
+ * its own so that the encounters and their assessed copies are garbage once it returns (an
+ * all-vs-all run holds ~10⁵), before the stored events are read back.
+ */
+async function assessAndStore(
+  db: KeepclearDb,
+  runId: string,
+  outcome: ScreeningOutcome,
+  risk: RiskContext,
+  req: ScreenRequest,
+  used: ReadonlyMap<string, { readonly summary: EphemerisSummary }>,
+  phase: (name: string) => void,
+): Promise<LinkOutcome> {
+  const risks = await risk.assessMany(outcome.encounters, req.workers);
+  const events = outcome.encounters.map((e, n) => ({ ...e, risk: risks[n]! }));
+  phase('risk');
   const linked = inTransaction(db, () => {
     if (req.dataAt !== undefined) setRunDataAt(db, runId, req.dataAt);
-    for (const u of choice.used.values()) recordRunEphemeris(db, runId, u.summary);
+    for (const u of used.values()) recordRunEphemeris(db, runId, u.summary);
     finishRun(db, runId, {
       status: outcome.cancelled ? 'cancelled' : 'done',
       wallMs: outcome.wallMs,
@@ -116,13 +160,8 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
     // In the same transaction: nobody sees the run's events without their series.
     return linkRun(db, runId);
   });
-  return {
-    run: getRun(db, runId)!,
-    events: eventsOfRun(db, runId),
-    linked,
-    ephemerides: runEphemerides(db, runId),
-    notes: choice.notes,
-  };
+  phase('store and link');
+  return linked;
 }
 
 export const daysAfter = (start: Instant, days: number): Instant => (start + days * 86_400_000) as Instant;

@@ -48,6 +48,7 @@ import {
   setEventSeries,
   sightingsOfPair,
   sightingsOfRun,
+  sightingsOfRunPairs,
   unlinkedPairs,
   updateEventRisk,
   type KeepclearDb,
@@ -161,8 +162,16 @@ function applyMessageCovariances(db: KeepclearDb, series: readonly Series[]): st
   return changed;
 }
 
-/** Relinks the given pairs (either order) and judges states again. Runs in one transaction. */
-export function linkPairs(db: KeepclearDb, pairs: Iterable<readonly [string, string]>): LinkOutcome {
+/**
+ * Relinks the given pairs (either order) and judges states again. Runs in one transaction.
+ * `read`: the stored sightings of some of the pairs by pairKeyOf, already read in this
+ * transaction (linkRun); the others are read pair by pair.
+ */
+export function linkPairs(
+  db: KeepclearDb,
+  pairs: Iterable<readonly [string, string]>,
+  read: ReadonlyMap<string, readonly SeriesMember[]> = new Map(),
+): LinkOutcome {
   return inTransaction(db, () => {
     const unique = new Map<string, readonly [string, string]>();
     for (const [a, b] of pairs) unique.set(pairKeyOf(a, b), [a, b]);
@@ -171,7 +180,7 @@ export function linkPairs(db: KeepclearDb, pairs: Iterable<readonly [string, str
     const retired = new Set<string>();
     for (const key of [...unique.keys()].sort()) {
       const [a, b] = unique.get(key)!;
-      const members = sightingsOfPair(db, a, b);
+      const members = read.get(key) ?? sightingsOfPair(db, a, b);
       if (members.length === 0) continue;
       const before = new Set(members.flatMap((m) => (m.event.seriesId ? [m.event.seriesId] : [])));
       const series = linkSeries(members);
@@ -193,8 +202,16 @@ export function linkPairs(db: KeepclearDb, pairs: Iterable<readonly [string, str
 
 /** Links the events of one run (a screening run, a merge, a received message), and any left unlinked. */
 export function linkRun(db: KeepclearDb, runId: string): LinkOutcome {
-  const pairs: [string, string][] = sightingsOfRun(db, runId).map((m) => [m.event.primary, m.event.secondary]);
-  return linkPairs(db, [...pairs, ...unlinkedPairs(db)]);
+  return inTransaction(db, () => {
+    // The run's pairs with all their stored sightings, in one read.
+    const read = sightingsOfRunPairs(db, runId);
+    const pairs: (readonly [string, string])[] = [];
+    for (const members of read.values()) {
+      const e = members[0]!.event;
+      pairs.push([e.primary, e.secondary]);
+    }
+    return linkPairs(db, [...pairs, ...unlinkedPairs(db)], read);
+  });
 }
 
 /**

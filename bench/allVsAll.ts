@@ -99,11 +99,17 @@ function wholeCommand(sets: readonly ElementSet[], start: Instant, days: number)
     const db = join(dir, 'bench.db'), cat = join(dir, 'catalogue.json'), out = join(dir, 'run.json');
     writeFileSync(cat, formatOmmJson(sets));
     const timed = (args: string[]) => {
-      const r = spawnSync('/usr/bin/time', ['-f', '%e %M', process.execPath, bin, ...args], { encoding: 'utf8', maxBuffer: 1 << 26 });
-      const last = r.stderr.trim().split('\n').pop() ?? '';
-      const [wall, kb] = last.split(' ').map(Number);
+      const r = spawnSync('/usr/bin/time', ['-f', '%e %M %U %S', process.execPath, bin, ...args], {
+        encoding: 'utf8',
+        maxBuffer: 1 << 26,
+        // the command's phase timings (app/screen.ts onPhase) on stderr
+        env: { ...process.env, KEEPCLEAR_PHASES: '1' },
+      });
+      const lines = r.stderr.trim().split('\n');
+      const [wall, kb, user, sys] = (lines.pop() ?? '').split(' ').map(Number);
       if (r.status !== 0) throw new Error(`keepclear ${args[0]} failed (${r.status}): ${r.stderr.slice(-2000)}`);
-      return { wallS: wall!, peakBytes: kb! * 1024 };
+      const phases = lines.filter((l) => l.startsWith('keepclear phase ')).map((l) => l.slice('keepclear phase '.length));
+      return { wallS: wall!, peakBytes: kb! * 1024, cpuS: user! + sys!, phases };
     };
     const imp = timed(['import', cat, '--db', db]);
     const scr = timed(['screen', '--all', '--db', db, '--start', new Date(start).toISOString(), '--days', String(days), '--threshold-km', '5', '--json', out]);
@@ -148,11 +154,13 @@ export async function benchAllVsAll(label: string, sets: readonly ElementSet[], 
   const w = wholeCommand(sets, start, days);
   if ('skipped' in w) console.log(`  whole command: skipped (${w.skipped})`);
   else {
-    rows.push({ name: `${label}: keepclear screen --all`, wallS: w.scr.wallS, cpuS: null, targetS: TARGET_S, peakRssMiB: w.scr.peakBytes / 2 ** 20, events: w.events, naiveS });
+    rows.push({ name: `${label}: keepclear screen --all`, wallS: w.scr.wallS, cpuS: w.scr.cpuS, targetS: TARGET_S, peakRssMiB: w.scr.peakBytes / 2 ** 20, events: w.events, naiveS });
     console.log(
-      `  whole command: keepclear screen --all --days 1 ${w.scr.wallS.toFixed(1)} s wall, peak ${mib(w.scr.peakBytes)}, ${w.events} events ` +
+      `  whole command: keepclear screen --all --days 1 ${w.scr.wallS.toFixed(1)} s wall, ${w.scr.cpuS.toFixed(1)} s CPU (all threads), peak ${mib(w.scr.peakBytes)}, ${w.events} events ` +
         `(import of the catalogue before it, not counted: ${w.imp.wallS.toFixed(1)} s, peak ${mib(w.imp.peakBytes)})`,
     );
+    // Where the command's time goes (wall per phase; peak memory so far, worker threads included).
+    for (const p of w.scr.phases) console.log(`    ${p}`);
   }
   return rows;
 }

@@ -149,8 +149,12 @@ export function insertEvents(db: KeepclearDb, runId: string, events: readonly Ne
 
 /** The events of one run, by TCA. */
 export function eventsOfRun(db: KeepclearDb, runId: string): ConjunctionEvent[] {
-  const rows = db.stmt('SELECT * FROM events WHERE run_id = ? ORDER BY tca_ms, seq').all(runId) as EventRow[];
-  return rows.map(eventFromRow);
+  // Row by row: an all-vs-all run's 10⁵ raw rows never exist at once beside the events.
+  const out: ConjunctionEvent[] = [];
+  for (const r of db.stmt('SELECT * FROM events WHERE run_id = ? ORDER BY tca_ms, seq').iterate(runId) as IterableIterator<EventRow>) {
+    out.push(eventFromRow(r));
+  }
+  return out;
 }
 
 export function getEvent(db: KeepclearDb, id: string): ConjunctionEvent | null {

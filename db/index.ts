@@ -68,6 +68,7 @@ export {
   LINKED_RUN_KINDS,
   sightingsOfPair,
   sightingsOfRun,
+  sightingsOfRunPairs,
   unlinkedPairs,
   setEventSeries,
   putSeries,

@@ -160,19 +160,41 @@ export default defineCommand<ScreenOptions>({
   ],
   async run(_args, o) {
     const settings = settingsFrom(o, Date.now());
-    const { openDatabase, defaultDbPath } = await import('../../db/index.js');
-    const { importFiles } = await import('../../app/import/index.js');
-    const { screenAndStore } = await import('../../app/screen.js');
-    const { eventToJson, runToJson } = await import('../../app/eventJson.js');
-    const { seriesStatesOf } = await import('../../app/seriesJson.js');
-    const { countByState } = await import('../../app/series.js');
-    const { attentionJson, attentionOf, updateAttentionFile } = await import('../../app/attention.js');
-    const { seriesCounts } = await import('../present/series.js');
-    const { presentFileOutcome, presentImportTotal } = await import('../present/imports.js');
-    const { eventSummary } = await import('../present/events.js');
-    const { writeJsonWithCaution } = await import('../present/json.js');
-    const { progress } = await import('../present/progress.js');
-    const { describeEphemeris } = await import('../../app/ephemerisText.js');
+    if (!settings.shard && settings.primaries !== 'all' && o.workers !== 0) {
+      // The workers load their modules while this thread loads its own and reads the catalogue.
+      const { prestartScreeningWorkers } = await import('../../core/screening/run.js');
+      prestartScreeningWorkers(o.workers);
+    }
+    // Loaded together: the module loader reads and compiles them concurrently.
+    const [
+      { openDatabase, defaultDbPath },
+      { importFiles },
+      { screenAndStore },
+      { eventToJson, runToJson },
+      { seriesStatesOf },
+      { countByState },
+      { attentionJson, attentionOf, updateAttentionFile },
+      { seriesCounts },
+      { presentFileOutcome, presentImportTotal },
+      { eventSummary },
+      { writeJsonWithCaution, writeJsonListWithCaution },
+      { progress },
+      { describeEphemeris },
+    ] = await Promise.all([
+      import('../../db/index.js'),
+      import('../../app/import/index.js'),
+      import('../../app/screen.js'),
+      import('../../app/eventJson.js'),
+      import('../../app/seriesJson.js'),
+      import('../../app/series.js'),
+      import('../../app/attention.js'),
+      import('../present/series.js'),
+      import('../present/imports.js'),
+      import('../present/events.js'),
+      import('../present/json.js'),
+      import('../present/progress.js'),
+      import('../../app/ephemerisText.js'),
+    ]);
 
     const jsonOnly = o.json === '-';
     const db = openDatabase(o.db ?? defaultDbPath());
@@ -209,11 +231,19 @@ export default defineCommand<ScreenOptions>({
         }
         return r.cancelled ? 1 : exit;
       }
+      // KEEPCLEAR_PHASES=1: each phase's wall time and the process's peak memory on stderr (bench/).
+      const phases = process.env['KEEPCLEAR_PHASES'] === '1';
+      let mark = performance.now();
+      const phase = (name: string, ms = performance.now() - mark): void => {
+        if (phases) process.stderr.write(`keepclear phase ${name}: ${(ms / 1000).toFixed(2)} s, peak rss ${(process.resourceUsage().maxRSS / 1024).toFixed(0)} MiB\n`);
+        mark = performance.now();
+      };
       const { run, events, ephemerides, notes } = await screenAndStore(db, {
         settings,
         ...(o.workers !== undefined ? { workers: o.workers } : {}),
         onProgress: bar.update,
         signal: controller.signal,
+        ...(phases ? { onPhase: (name: string, ms: number) => phase(name, ms) } : {}),
       });
       bar.stop();
       // Which source each primary was screened from, on stderr (stdout may carry only JSON).
@@ -222,7 +252,9 @@ export default defineCommand<ScreenOptions>({
       for (const f of run.flagged) process.stderr.write(`keepclear: flagged ${f.id}: ${f.reason}\n`);
       if (run.status === 'cancelled') process.stderr.write('keepclear: screening cancelled; partial results stored\n');
       const states = seriesStatesOf(db, events);
-      if (o.json !== undefined) writeJsonWithCaution(o.json, { run: runToJson(run, run.flagged, ephemerides), events: events.map((e) => eventToJson(e, states)) });
+      phase('series states');
+      if (o.json !== undefined) writeJsonListWithCaution(o.json, { run: runToJson(run, run.flagged, ephemerides) }, 'events', events, (e) => eventToJson(e, states));
+      phase('json');
       const attention = attentionOf(events, o.attentionTier ?? DEFAULT_ATTENTION_TIER);
       if (o.attentionFile !== undefined) {
         // A cancelled run saw only part of the window: it can raise the flag, never clear it.
@@ -243,6 +275,7 @@ export default defineCommand<ScreenOptions>({
         }
         process.stdout.write(eventSummary(events, o.allEvents === true, more));
       }
+      phase('summary');
       if (run.status === 'cancelled') return 1;
       // Opt-in: the attention code wins over exit 1 for rejected catalogue records (reported on
       // stderr), so that a few bad records in a weekly file cannot hide an approach.

@@ -1,4 +1,4 @@
-import { writeFileSync } from 'node:fs';
+import { closeSync, openSync, writeFileSync, writeSync } from 'node:fs';
 import { DECISION_AID_NOTE } from '../../core/risk/assess.js';
 
 /**
@@ -9,4 +9,47 @@ export function writeJsonWithCaution(target: string, doc: Record<string, unknown
   const text = `${JSON.stringify({ caution: DECISION_AID_NOTE, ...doc }, null, 2)}\n`;
   if (target === '-') process.stdout.write(text);
   else writeFileSync(target, text);
+}
+
+/** Bytes gathered before each write of a streamed document. */
+const STREAM_CHUNK_CHARS = 1 << 20;
+
+/**
+ * writeJsonWithCaution of `{ ...head, [listKey]: items.map(toJson) }`, byte for byte, with the
+ * list written item by item to a file: an all-vs-all run's 10⁵ events never exist at once as
+ * JSON objects or as one string (hundreds of MB). To stdout ("-") it writes the whole text as
+ * writeJsonWithCaution does.
+ */
+export function writeJsonListWithCaution<T>(
+  target: string,
+  head: Record<string, unknown>,
+  listKey: string,
+  items: readonly T[],
+  toJson: (item: T) => unknown,
+): void {
+  if (target === '-') {
+    writeJsonWithCaution(target, { ...head, [listKey]: items.map(toJson) });
+    return;
+  }
+  // The document without the list, opened after its last member: "{\n  …\n}" less the "\n}".
+  const opening = JSON.stringify({ caution: DECISION_AID_NOTE, ...head }, null, 2);
+  const fd = openSync(target, 'w');
+  try {
+    let buf = `${opening.slice(0, -2)},\n  ${JSON.stringify(listKey)}: [`;
+    if (items.length === 0) buf += ']';
+    for (let n = 0; n < items.length; n++) {
+      // An item at depth 2 is its own indented text with every line moved in by 4 spaces
+      // (string values hold newlines only escaped, so every raw newline is structure).
+      const text = JSON.stringify(toJson(items[n]!), null, 2) ?? 'null';
+      buf += `${n === 0 ? '' : ','}\n    ${text.replace(/\n/g, '\n    ')}`;
+      if (buf.length >= STREAM_CHUNK_CHARS) {
+        writeSync(fd, buf);
+        buf = '';
+      }
+    }
+    if (items.length > 0) buf += '\n  ]';
+    writeSync(fd, `${buf}\n}\n`);
+  } finally {
+    closeSync(fd);
+  }
 }

@@ -4,7 +4,7 @@ import type { Matrix } from '../math/linalg.js';
 import type { Encounter, Matrix2, Matrix3, RiskAssessment, RiskDetail, StateArray } from '../events/index.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
 import { defaultCovariance, regimeOf } from './covarianceDefault.js';
-import { covarianceFromHistory } from './covarianceHistory.js';
+import { growHistorySample, historySample, type HistorySample } from './covarianceHistory.js';
 import { judgeCovariance } from './covariancePsd.js';
 import type { Regime } from './defaultCovarianceTable.js';
 import { encounterPlane, type EncounterPlane } from './encounterPlane.js';
@@ -33,8 +33,14 @@ export interface CovarianceInput {
   readonly ephemeris?: { readonly rtnM2: Matrix; readonly source: string; readonly note: string } | null;
   /** the object's element sets, ascending epochs, newest last */
   readonly history?: readonly ElementSet[] | null;
+  /**
+   * historySample(history), when the caller already has it (it depends on the object only, so a
+   * caller assessing many encounters of one object computes it once); given (even null), it is
+   * used instead of `history`
+   */
+  readonly historyStats?: HistorySample | null;
   /** the element set used for the encounter (gives regime and age for the default table) */
-  readonly elements?: ElementSet | null;
+  readonly elements?: Pick<ElementSet, 'epoch' | 'meanMotionRevPerDay' | 'eccentricity'> | null;
   /** regime when no element set is at hand (e.g. an ephemeris object) */
   readonly regime?: Regime | null;
   /**
@@ -59,6 +65,9 @@ export interface AssessInputs {
    */
   readonly encounterModel?: 'auto' | '2d';
 }
+
+/** What an assessment reads of an encounter. */
+export type EncounterAtTca = Pick<Encounter, 'tca' | 'missKm' | 'primaryState' | 'secondaryState' | 'primaryEpoch' | 'secondaryEpoch'>;
 
 /** pcMethod names (JSON contract field `pcMethod`). */
 export const PC_METHOD_3D = '3d-coppola';
@@ -114,9 +123,10 @@ function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch:
     const g = graded(input.ephemeris.rtnM2, input.ephemeris.source);
     return { ...g, notes: [...g.notes, `${label}: ${input.ephemeris.note}`] };
   }
-  if (input.history) {
-    const h = covarianceFromHistory(input.history, tca);
-    if (h) return graded(h.rtn6, h.source);
+  const stats = input.historyStats !== undefined ? input.historyStats : input.history ? historySample(input.history) : null;
+  if (stats) {
+    const h = growHistorySample(stats, tca);
+    return graded(h.rtn6, h.source);
   }
   const regime = input.regime ?? (input.elements ? regimeOf(input.elements) : null);
   if (regime) {
@@ -135,7 +145,7 @@ function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch:
  * zero, non-finite, asymmetric; or the projected 2×2 is singular): maximum Pc over an isotropic
  * covariance of unknown size (Alfano 2005), which is an upper bound and says so in pcMethod.
  */
-export function assessEncounter(encounter: Encounter, inputs: AssessInputs): RiskAssessment {
+export function assessEncounter<E extends EncounterAtTca>(encounter: E, inputs: AssessInputs): RiskAssessment {
   const thresholds = { ...DEFAULT_TIER_THRESHOLDS, ...inputs.thresholds };
   const hbr = combinedHbr(inputs.hbrPrimaryM, inputs.hbrSecondaryM);
   const p = resolve(inputs.primary, encounter.primaryState, encounter.tca, encounter.primaryEpoch, 'primary');

@@ -35,19 +35,23 @@ export interface HistoryCovariance {
 }
 
 /**
- * Covariance of an object from its own element-set history (ascending epochs; the last is the
- * newest). Each older set is propagated (SGP4) to the newest epoch and to points after it, and
- * its position minus the newest set's is taken in the newest set's RTN frame. The statistic is
- * the mean square about zero, not about the sample mean: an older set's bias is part of the
- * error of a prediction of that age, and it must not be removed.
- *
- * Growth to `at` (documented model, our choice): the statistics describe a prediction of age
- * meanSpan; along-track error is taken to grow linearly with age (a mean-motion error moves the
- * object along its orbit at a constant rate), so the T row and column are scaled by
- * (floor + age)/(floor + meanSpan); radial and cross-track are kept (they stay bounded to first
- * order). Returns null with fewer than MIN_OLDER_SETS usable older sets.
+ * What an object's element-set history says before any growth to a time: the mean-square RTN
+ * differences of the older sets' predictions (6×6, m², m²/s, m²/s²), how many sets were used and
+ * their mean propagation span. Independent of the time asked for, so one object's history is
+ * propagated once however many encounters it has (RiskContext caches it per object).
  */
-export function covarianceFromHistory(sets: readonly ElementSet[], at: Instant): HistoryCovariance | null {
+export interface HistorySample {
+  readonly sample6: Matrix;
+  readonly newestEpoch: Instant;
+  readonly meanSpanDays: number;
+  readonly sets: number;
+}
+
+/**
+ * The history statistics of covarianceFromHistory (see there); null with fewer than
+ * MIN_OLDER_SETS usable older sets.
+ */
+export function historySample(sets: readonly ElementSet[]): HistorySample | null {
   const newest = sets[sets.length - 1];
   if (!newest) return null;
   const older = sets.filter((s) => s.epoch < newest.epoch);
@@ -84,12 +88,17 @@ export function covarianceFromHistory(sets: readonly ElementSet[], at: Instant):
   }
   if (used < MIN_OLDER_SETS) return null;
   const sample6 = [0, 1, 2, 3, 4, 5].map((i) => [0, 1, 2, 3, 4, 5].map((j) => acc[6 * i + j]! / samples));
-  const sample = sample6.slice(0, 3).map((row) => row.slice(0, 3));
-  const meanSpan = spanSum / used;
-  const age = Math.abs(at - newest.epoch) / MS_PER_DAY;
+  return { sample6, newestEpoch: newest.epoch, meanSpanDays: spanSum / used, sets: used };
+}
+
+/** The history statistics grown to `at` (the growth model of covarianceFromHistory). */
+export function growHistorySample(h: HistorySample, at: Instant): HistoryCovariance {
+  const sample = h.sample6.slice(0, 3).map((row) => row.slice(0, 3));
+  const meanSpan = h.meanSpanDays;
+  const age = Math.abs(at - h.newestEpoch) / MS_PER_DAY;
   const g = (GROWTH_FLOOR_DAYS + age) / (GROWTH_FLOOR_DAYS + meanSpan);
   const scaleOf = [1, g, 1, 1, 1, 1];
-  const grown6 = sample6.map((row, i) => row.map((x, j) => x * scaleOf[i]! * scaleOf[j]!));
+  const grown6 = h.sample6.map((row, i) => row.map((x, j) => x * scaleOf[i]! * scaleOf[j]!));
   return {
     rtnM2: grown6.slice(0, 3).map((row) => row.slice(0, 3)),
     rtn6: grown6,
@@ -97,7 +106,25 @@ export function covarianceFromHistory(sets: readonly ElementSet[], at: Instant):
     meanSpanDays: meanSpan,
     ageDays: age,
     alongTrackScale: g,
-    sets: used,
-    source: `history(n=${used})`,
+    sets: h.sets,
+    source: `history(n=${h.sets})`,
   };
+}
+
+/**
+ * Covariance of an object from its own element-set history (ascending epochs; the last is the
+ * newest). Each older set is propagated (SGP4) to the newest epoch and to points after it, and
+ * its position minus the newest set's is taken in the newest set's RTN frame. The statistic is
+ * the mean square about zero, not about the sample mean: an older set's bias is part of the
+ * error of a prediction of that age, and it must not be removed.
+ *
+ * Growth to `at` (documented model, our choice): the statistics describe a prediction of age
+ * meanSpan; along-track error is taken to grow linearly with age (a mean-motion error moves the
+ * object along its orbit at a constant rate), so the T row and column are scaled by
+ * (floor + age)/(floor + meanSpan); radial and cross-track are kept (they stay bounded to first
+ * order). Returns null with fewer than MIN_OLDER_SETS usable older sets.
+ */
+export function covarianceFromHistory(sets: readonly ElementSet[], at: Instant): HistoryCovariance | null {
+  const h = historySample(sets);
+  return h ? growHistorySample(h, at) : null;
 }

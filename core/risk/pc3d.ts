@@ -19,11 +19,11 @@
  * Errors of the two objects are independent (as in the 2-D method).
  */
 import { KeepclearError } from '../errors.js';
-import { add, multiply, transpose, type Matrix } from '../math/linalg.js';
+import { add, type Matrix } from '../math/linalg.js';
 import { erfc } from './erf.js';
 import { gaussLegendre } from './gaussLegendre.js';
 import { integrateAdaptive } from './gaussKronrod.js';
-import { MU_M3_S2, propagateWithStm, type State6 } from './twoBody.js';
+import { MU_M3_S2, propagateWithStmInto, type State6 } from './twoBody.js';
 
 /** The time window spans ± this many σ_t = σ(along relative velocity)/speed around TCA: the
  * inflow falls like exp(−k²/2), so at 8σ it is ~1e-14 of its peak. */
@@ -80,16 +80,6 @@ function periodS(x: State6, mu: number): number {
   return inv > 0 ? 2 * Math.PI * Math.sqrt(1 / (inv * inv * inv) / mu) : Infinity;
 }
 
-/** Inverse and determinant of a symmetric positive definite 3×3 (cofactors). */
-function inverse3(a: Matrix): { inv: Matrix; det: number } {
-  const p = a[0]![0]!, q = a[0]![1]!, r = a[0]![2]!, s = a[1]![1]!, t = a[1]![2]!, u = a[2]![2]!;
-  const c00 = s * u - t * t, c01 = r * t - q * u, c02 = q * t - r * s;
-  const det = p * c00 + q * c01 + r * c02;
-  if (!(det > 0)) throw new KeepclearError('BAD_ARGUMENT', `3-D Pc: relative position covariance is singular (det ${det})`);
-  const c11 = p * u - r * r, c12 = q * r - p * t, c22 = p * s - q * q;
-  return { inv: [[c00 / det, c01 / det, c02 / det], [c01 / det, c11 / det, c12 / det], [c02 / det, c12 / det, c22 / det]], det };
-}
-
 /**
  * Nodes on the unit sphere in a frame whose pole e₃ is set per time (along the relative mean
  * velocity): Gauss–Legendre in cos θ on each hemisphere separately × uniform in φ. The inflow
@@ -137,51 +127,110 @@ function completeBasis(e3: readonly number[]): [number[], number[]] {
 const sub6 = (a: State6, b: State6): number[] => a.map((x, i) => x - b[i]!);
 const block = (m: Matrix, r0: number, c0: number): Matrix => [0, 1, 2].map((i) => [0, 1, 2].map((j) => m[r0 + i]![c0 + j]!));
 
-/** Inflow rate Ṗc at time t (s from TCA). */
+/** Σ_p a[i][p]·b[p][j] over flat row-major 6×6 matrices, summed in p order (as linalg.multiply). */
+function mul66(a: Float64Array, b: Float64Array, out: Float64Array): void {
+  for (let i = 0; i < 6; i++)
+    for (let j = 0; j < 6; j++) {
+      let s = 0;
+      for (let p = 0; p < 6; p++) s += a[6 * i + p]! * b[6 * p + j]!;
+      out[6 * i + j] = s;
+    }
+}
+/** out = a·bᵀ over flat 6×6 matrices (as multiply(a, transpose(b))). */
+function mulT66(a: Float64Array, b: Float64Array, out: Float64Array): void {
+  for (let i = 0; i < 6; i++)
+    for (let j = 0; j < 6; j++) {
+      let s = 0;
+      for (let p = 0; p < 6; p++) s += a[6 * i + p]! * b[6 * j + p]!;
+      out[6 * i + j] = s;
+    }
+}
+const flat66 = (m: Matrix): Float64Array => {
+  const out = new Float64Array(36);
+  for (let i = 0; i < 6; i++) for (let j = 0; j < 6; j++) out[6 * i + j] = m[i]![j]!;
+  return out;
+};
+
+/**
+ * Inflow rate Ṗc at time t (s from TCA). Written without allocation in the loop (the 3-D Pc of
+ * a dense shell's slow pairs calls it ~100 times per encounter), with the same arithmetic in the
+ * same order as the matrix helpers of core/math/linalg.ts, so its values are those of the plain
+ * formulation.
+ */
 function makeRate(inp: Pc3dInput, rule: SphereRule, mu: number): { rate: (t: number) => number; count: () => number } {
   let n = 0;
   const R = inp.radiusM;
+  const covP = flat66(inp.primaryCov), covS = flat66(inp.secondaryCov);
+  const ps = new Float64Array(6), ss = new Float64Array(6), pPhi = new Float64Array(36), sPhi = new Float64Array(36);
+  const plus = new Float64Array(6), moved = new Float64Array(6);
+  const t1 = new Float64Array(36), cp = new Float64Array(36), cs = new Float64Array(36);
+  const nodes = rule.w.length;
   const rate = (t: number): number => {
     n++;
-    const p = propagateWithStm(inp.primary, t, mu), s = propagateWithStm(inp.secondary, t, mu);
-    const mean = sub6(s.state, p.state);
-    const cov = add(
-      multiply(multiply(p.stm, inp.primaryCov), transpose(p.stm)),
-      multiply(multiply(s.stm, inp.secondaryCov), transpose(s.stm)),
-    );
-    const prr = block(cov, 0, 0), pvr = block(cov, 3, 0), pvv = block(cov, 3, 3);
-    const sym = prr.map((row, i) => row.map((x, j) => 0.5 * (x + prr[j]![i]!)));
-    const { inv, det } = inverse3(sym);
-    const k = multiply(pvr, inv); // conditional mean gain of v on r
-    const gamma = multiply(k, transpose(pvr)).map((row, i) => row.map((x, j) => pvv[i]![j]! - x));
+    propagateWithStmInto(inp.primary, t, mu, ps, pPhi, plus, moved);
+    propagateWithStmInto(inp.secondary, t, mu, ss, sPhi, plus, moved);
+    const m0 = ss[0]! - ps[0]!, m1 = ss[1]! - ps[1]!, m2_ = ss[2]! - ps[2]!;
+    const m3 = ss[3]! - ps[3]!, m4 = ss[4]! - ps[4]!, m5 = ss[5]! - ps[5]!;
+    // Φ·C·Φᵀ of each object, then their sum (add(multiply(multiply(Φ, C), transpose(Φ)), …))
+    mul66(pPhi, covP, t1);
+    mulT66(t1, pPhi, cp);
+    mul66(sPhi, covS, t1);
+    mulT66(t1, sPhi, cs);
+    const c = (i: number, j: number): number => cp[6 * i + j]! + cs[6 * i + j]!;
+    // the position block, symmetrised; its inverse and determinant by cofactors
+    const p = 0.5 * (c(0, 0) + c(0, 0)), q = 0.5 * (c(0, 1) + c(1, 0)), r = 0.5 * (c(0, 2) + c(2, 0));
+    const s = 0.5 * (c(1, 1) + c(1, 1)), tt = 0.5 * (c(1, 2) + c(2, 1)), u_ = 0.5 * (c(2, 2) + c(2, 2));
+    const c00 = s * u_ - tt * tt, c01 = r * tt - q * u_, c02 = q * tt - r * s;
+    const det = p * c00 + q * c01 + r * c02;
+    if (!(det > 0)) throw new KeepclearError('BAD_ARGUMENT', `3-D Pc: relative position covariance is singular (det ${det})`);
+    const c11 = p * u_ - r * r, c12 = q * r - p * tt, c22 = p * s - q * q;
+    const i00 = c00 / det, i01 = c01 / det, i02 = c02 / det;
+    const i10 = c01 / det, i11 = c11 / det, i12 = c12 / det;
+    const i20 = c02 / det, i21 = c12 / det, i22 = c22 / det;
+    // pvr[i][j] = cov[3+i][j]; K = pvr·inv (conditional mean gain of v on r)
+    const v00 = c(3, 0), v01 = c(3, 1), v02 = c(3, 2);
+    const v10 = c(4, 0), v11 = c(4, 1), v12 = c(4, 2);
+    const v20 = c(5, 0), v21 = c(5, 1), v22 = c(5, 2);
+    const k00 = v00 * i00 + v01 * i10 + v02 * i20, k01 = v00 * i01 + v01 * i11 + v02 * i21, k02 = v00 * i02 + v01 * i12 + v02 * i22;
+    const k10 = v10 * i00 + v11 * i10 + v12 * i20, k11 = v10 * i01 + v11 * i11 + v12 * i21, k12 = v10 * i02 + v11 * i12 + v12 * i22;
+    const k20 = v20 * i00 + v21 * i10 + v22 * i20, k21 = v20 * i01 + v21 * i11 + v22 * i21, k22 = v20 * i02 + v21 * i12 + v22 * i22;
+    // Γ = pvv − K·pvrᵀ
+    const g00 = c(3, 3) - (k00 * v00 + k01 * v01 + k02 * v02), g01 = c(3, 4) - (k00 * v10 + k01 * v11 + k02 * v12), g02 = c(3, 5) - (k00 * v20 + k01 * v21 + k02 * v22);
+    const g10 = c(4, 3) - (k10 * v00 + k11 * v01 + k12 * v02), g11 = c(4, 4) - (k10 * v10 + k11 * v11 + k12 * v12), g12 = c(4, 5) - (k10 * v20 + k11 * v21 + k12 * v22);
+    const g20 = c(5, 3) - (k20 * v00 + k21 * v01 + k22 * v02), g21 = c(5, 4) - (k20 * v10 + k21 * v11 + k22 * v12), g22 = c(5, 5) - (k20 * v20 + k21 * v21 + k22 * v22);
     const norm = 1 / (TWO_PI_POW_1_5 * Math.sqrt(det));
-    const vn = Math.hypot(mean[3]!, mean[4]!, mean[5]!);
-    const e3 = vn > 0 ? [mean[3]! / vn, mean[4]! / vn, mean[5]! / vn] : [0, 0, 1];
+    const vn = Math.hypot(m3, m4, m5);
+    const e3 = vn > 0 ? [m3 / vn, m4 / vn, m5 / vn] : [0, 0, 1];
     const [e1, e2] = completeBasis(e3);
+    const e10 = e1[0]!, e11 = e1[1]!, e12 = e1[2]!, e20 = e2[0]!, e21 = e2[1]!, e22 = e2[2]!, e30 = e3[0]!, e31 = e3[1]!, e32 = e3[2]!;
     let sum = 0;
-    const u = [0, 0, 0];
-    for (let q = 0; q < rule.w.length; q++) {
-      const a = rule.x[q]!, b = rule.y[q]!, cz = rule.c[q]!;
-      u[0] = a * e1[0]! + b * e2[0]! + cz * e3[0]!;
-      u[1] = a * e1[1]! + b * e2[1]! + cz * e3[1]!;
-      u[2] = a * e1[2]! + b * e2[2]! + cz * e3[2]!;
-      const d0 = R * u[0]! - mean[0]!, d1 = R * u[1]! - mean[1]!, d2 = R * u[2]! - mean[2]!;
+    for (let qn = 0; qn < nodes; qn++) {
+      const a = rule.x[qn]!, b = rule.y[qn]!, cz = rule.c[qn]!;
+      const u0 = a * e10 + b * e20 + cz * e30;
+      const u1 = a * e11 + b * e21 + cz * e31;
+      const u2 = a * e12 + b * e22 + cz * e32;
+      const d0 = R * u0 - m0, d1 = R * u1 - m1, d2 = R * u2 - m2_;
       const m2 =
-        d0 * (inv[0]![0]! * d0 + inv[0]![1]! * d1 + inv[0]![2]! * d2) +
-        d1 * (inv[1]![0]! * d0 + inv[1]![1]! * d1 + inv[1]![2]! * d2) +
-        d2 * (inv[2]![0]! * d0 + inv[2]![1]! * d1 + inv[2]![2]! * d2);
+        d0 * (i00 * d0 + i01 * d1 + i02 * d2) +
+        d1 * (i10 * d0 + i11 * d1 + i12 * d2) +
+        d2 * (i20 * d0 + i21 * d1 + i22 * d2);
       const dens = norm * Math.exp(-0.5 * m2);
       if (dens === 0) continue;
       // conditional velocity mean ν = μv + K·d, and w = −û·v
-      let m = 0, s2 = 0;
-      for (let i = 0; i < 3; i++) {
-        const nu = mean[3 + i]! + k[i]![0]! * d0 + k[i]![1]! * d1 + k[i]![2]! * d2;
-        m -= u[i]! * nu;
-        for (let j = 0; j < 3; j++) s2 += u[i]! * gamma[i]![j]! * u[j]!;
-      }
+      const nu0 = m3 + k00 * d0 + k01 * d1 + k02 * d2;
+      const nu1 = m4 + k10 * d0 + k11 * d1 + k12 * d2;
+      const nu2 = m5 + k20 * d0 + k21 * d1 + k22 * d2;
+      let m = 0;
+      m -= u0 * nu0;
+      m -= u1 * nu1;
+      m -= u2 * nu2;
+      let s2 = 0;
+      s2 += u0 * g00 * u0; s2 += u0 * g01 * u1; s2 += u0 * g02 * u2;
+      s2 += u1 * g10 * u0; s2 += u1 * g11 * u1; s2 += u1 * g12 * u2;
+      s2 += u2 * g20 * u0; s2 += u2 * g21 * u1; s2 += u2 * g22 * u2;
       const sd = Math.sqrt(Math.max(s2, 0));
       const flux = sd > 0 ? m * normCdf(m / sd) + sd * INV_SQRT_2PI * Math.exp((-0.5 * m * m) / (sd * sd)) : Math.max(m, 0);
-      sum += rule.w[q]! * dens * flux;
+      sum += rule.w[qn]! * dens * flux;
     }
     return R * R * sum;
   };

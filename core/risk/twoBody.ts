@@ -11,18 +11,28 @@ const MAX_ITERATIONS = 50;
 /** Stop when the time of flight matches to this fraction of a second (far below 1 µs). */
 const TIME_TOL_S = 1e-9;
 
-/** Stumpff functions c2(ψ), c3(ψ) with series near ψ = 0 (no cancellation). */
-function stumpff(psi: number): [number, number] {
+/** Stumpff functions c2(ψ), c3(ψ) with series near ψ = 0 (no cancellation), into C2 and C3
+ * (module variables: the 3-D Pc calls this millions of times, and a returned pair allocates). */
+let C2 = 0.5, C3 = 1 / 6;
+function stumpff(psi: number): void {
   if (psi > 1e-6) {
     const s = Math.sqrt(psi);
-    return [(1 - Math.cos(s)) / psi, (s - Math.sin(s)) / (s * psi)];
+    C2 = (1 - Math.cos(s)) / psi;
+    C3 = (s - Math.sin(s)) / (s * psi);
+    return;
   }
   if (psi < -1e-6) {
     const s = Math.sqrt(-psi);
-    return [(1 - Math.cosh(s)) / psi, (Math.sinh(s) - s) / (s * -psi)];
+    C2 = (1 - Math.cosh(s)) / psi;
+    C3 = (Math.sinh(s) - s) / (s * -psi);
+    return;
   }
-  return [1 / 2 - psi / 24 + (psi * psi) / 720, 1 / 6 - psi / 120 + (psi * psi) / 5040];
+  C2 = 1 / 2 - psi / 24 + (psi * psi) / 720;
+  C3 = 1 / 6 - psi / 120 + (psi * psi) / 5040;
 }
+
+/** A writable state of 6 numbers (a plain array or a Float64Array). */
+type StateOut = { [i: number]: number };
 
 /**
  * Two-body (Keplerian) propagation by Lagrange f and g with the universal anomaly χ (Vallado,
@@ -31,10 +41,21 @@ function stumpff(psi: number): [number, number] {
  */
 export function propagateTwoBody(x: State6, dt: number, mu = MU_M3_S2): State6 {
   if (dt === 0) return x;
-  const r0v = [x[0], x[1], x[2]], v0v = [x[3], x[4], x[5]];
-  const r0 = Math.hypot(x[0], x[1], x[2]);
-  const v2 = x[3] * x[3] + x[4] * x[4] + x[5] * x[5];
-  const rv = x[0] * x[3] + x[1] * x[4] + x[2] * x[5];
+  const out = [0, 0, 0, 0, 0, 0];
+  propagateTwoBodyInto(x, dt, mu, out, 0);
+  return out as unknown as State6;
+}
+
+/** propagateTwoBody written into out[off..off+5] without allocating (dt = 0 copies x). */
+export function propagateTwoBodyInto(x: ArrayLike<number>, dt: number, mu: number, out: StateOut, off: number): void {
+  const x0 = x[0]!, x1 = x[1]!, x2 = x[2]!, x3 = x[3]!, x4 = x[4]!, x5 = x[5]!;
+  if (dt === 0) {
+    out[off] = x0; out[off + 1] = x1; out[off + 2] = x2; out[off + 3] = x3; out[off + 4] = x4; out[off + 5] = x5;
+    return;
+  }
+  const r0 = Math.hypot(x0, x1, x2);
+  const v2 = x3 * x3 + x4 * x4 + x5 * x5;
+  const rv = x0 * x3 + x1 * x4 + x2 * x5;
   const sqmu = Math.sqrt(mu);
   const alpha = 2 / r0 - v2 / mu; // 1/a
   // Starting guess: elliptic χ ≈ √μ·dt·α; otherwise a small-step guess (refined by Newton).
@@ -42,7 +63,9 @@ export function propagateTwoBody(x: State6, dt: number, mu = MU_M3_S2): State6 {
   let c2 = 0.5, c3 = 1 / 6, psi = 0, r = r0;
   for (let k = 0; k < MAX_ITERATIONS; k++) {
     psi = chi * chi * alpha;
-    [c2, c3] = stumpff(psi);
+    stumpff(psi);
+    c2 = C2;
+    c3 = C3;
     const chi2 = chi * chi;
     r = chi2 * c2 + (rv / sqmu) * chi * (1 - psi * c3) + r0 * (1 - psi * c2);
     const t = (chi2 * chi * c3 + (rv / sqmu) * chi2 * c2 + r0 * chi * (1 - psi * c3)) / sqmu;
@@ -55,14 +78,12 @@ export function propagateTwoBody(x: State6, dt: number, mu = MU_M3_S2): State6 {
   const g = dt - (chi2 * chi * c3) / sqmu;
   const gdot = 1 - (chi2 / r) * c2;
   const fdot = (sqmu / (r * r0)) * chi * (psi * c3 - 1);
-  return [
-    f * r0v[0]! + g * v0v[0]!,
-    f * r0v[1]! + g * v0v[1]!,
-    f * r0v[2]! + g * v0v[2]!,
-    fdot * r0v[0]! + gdot * v0v[0]!,
-    fdot * r0v[1]! + gdot * v0v[1]!,
-    fdot * r0v[2]! + gdot * v0v[2]!,
-  ];
+  out[off] = f * x0 + g * x3;
+  out[off + 1] = f * x1 + g * x4;
+  out[off + 2] = f * x2 + g * x5;
+  out[off + 3] = fdot * x0 + gdot * x3;
+  out[off + 4] = fdot * x1 + gdot * x4;
+  out[off + 5] = fdot * x2 + gdot * x5;
 }
 
 /** Forward-difference steps of the state transition matrix: 1 m and 1 mm/s. The truncation
@@ -73,14 +94,27 @@ const STM_STEP_VELOCITY_MPS = 1e-3;
 
 /** State at dt and the two-body state transition matrix Φ(dt) = ∂x(dt)/∂x(0) (6×6, row-major). */
 export function propagateWithStm(x: State6, dt: number, mu = MU_M3_S2): { state: State6; stm: number[][] } {
-  const state = propagateTwoBody(x, dt, mu);
-  const stm = Array.from({ length: 6 }, () => new Array<number>(6).fill(0));
+  const state = new Float64Array(6), flat = new Float64Array(36);
+  propagateWithStmInto(x, dt, mu, state, flat, new Float64Array(6), new Float64Array(6));
+  return {
+    state: Array.from(state) as unknown as State6,
+    stm: Array.from({ length: 6 }, (_, i) => Array.from(flat.subarray(6 * i, 6 * i + 6))),
+  };
+}
+
+/**
+ * propagateWithStm into `state` (6) and `stm` (36, row-major) without allocating; `plus` and
+ * `moved` are scratch arrays of 6.
+ */
+export function propagateWithStmInto(
+  x: ArrayLike<number>, dt: number, mu: number, state: Float64Array, stm: Float64Array, plus: Float64Array, moved: Float64Array,
+): void {
+  propagateTwoBodyInto(x, dt, mu, state, 0);
   for (let k = 0; k < 6; k++) {
     const h = k < 3 ? STM_STEP_POSITION_M : STM_STEP_VELOCITY_MPS;
-    const plus = x.slice() as number[];
+    for (let i = 0; i < 6; i++) plus[i] = x[i]!;
     plus[k]! += h;
-    const a = propagateTwoBody(plus as unknown as State6, dt, mu);
-    for (let i = 0; i < 6; i++) stm[i]![k] = (a[i]! - state[i]!) / h;
+    propagateTwoBodyInto(plus, dt, mu, moved, 0);
+    for (let i = 0; i < 6; i++) stm[6 * i + k] = (moved[i]! - state[i]!) / h;
   }
-  return { state, stm };
 }

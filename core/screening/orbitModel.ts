@@ -65,8 +65,13 @@ export interface OrbitModel {
 const N_EL = 6;
 /** Fractional part of the golden ratio: successive multiples spread evenly over [0, 1). */
 const GOLDEN = 0.6180339887498949;
-/** Time per pair of phase samples (min): one pair per 12 h of span. */
-const PHASE_PAIR_SPACING_MIN = 720;
+/**
+ * Time per pair of phase samples (min): one pair per day of span (per 12-h interval in deep
+ * space). Against twice as many samples the measured error is ≥ 0.91 of theirs on every
+ * near-Earth object of a 3,000-object catalogue (median 0.9997), and with EPS_SAFETY the worst
+ * error found at random instants is 0.71 ε (test/screening-model-bound.test.ts holds it < ε).
+ */
+const PHASE_PAIR_SPACING_MIN = 1440;
 /** Eccentricity above which the error is also measured around perigee passages. */
 const PERIGEE_SAMPLING_MIN_E = 0.05;
 /** Perigee samples are spaced by the period over this (5 samples across ±2/50 of an orbit). */

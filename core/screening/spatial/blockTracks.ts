@@ -95,6 +95,41 @@ export class BlockTracks {
     }
   }
 
+  /**
+   * stateInto for many objects at one instant, into structure-of-arrays outputs indexed like
+   * `objects` (out[n] is objects[n]'s): the broad phase's per-step loop, with the same arithmetic
+   * as stateInto (so the same values) and no call per object.
+   */
+  statesAt(
+    t: number, objects: Int32Array, x: Float64Array, y: Float64Array, z: Float64Array, u: Float64Array, v: Float64Array, w: Float64Array,
+  ): void {
+    const samples = this.samples, first = this.first, stepMs = this.stepMs, t0 = this.t0;
+    for (let n = 0; n < objects.length; n++) {
+      const i = objects[n]!;
+      const h = stepMs[i]!;
+      const base = first[i]!;
+      const last = first[i + 1]! - base - 2;
+      let m = Math.floor((t - t0) / h);
+      if (m < 0) m = 0;
+      else if (m > last) m = last;
+      const s = (t - t0 - m * h) / h;
+      const hs = h / 1000;
+      const s2 = s * s, s3 = s2 * s;
+      const h00 = 2 * s3 - 3 * s2 + 1, h10 = (s3 - 2 * s2 + s) * hs, h01 = -2 * s3 + 3 * s2, h11 = (s3 - s2) * hs;
+      const d00 = (6 * s2 - 6 * s) / hs, d10 = 3 * s2 - 4 * s + 1, d01 = (-6 * s2 + 6 * s) / hs, d11 = 3 * s2 - 2 * s;
+      const a = (base + m) * 6, b = a + 6;
+      let p0 = samples[a]!, v0 = samples[a + 3]!, p1 = samples[b]!, v1 = samples[b + 3]!;
+      x[n] = h00 * p0 + h10 * v0 + h01 * p1 + h11 * v1;
+      u[n] = d00 * p0 + d10 * v0 + d01 * p1 + d11 * v1;
+      p0 = samples[a + 1]!; v0 = samples[a + 4]!; p1 = samples[b + 1]!; v1 = samples[b + 4]!;
+      y[n] = h00 * p0 + h10 * v0 + h01 * p1 + h11 * v1;
+      v[n] = d00 * p0 + d10 * v0 + d01 * p1 + d11 * v1;
+      p0 = samples[a + 2]!; v0 = samples[a + 5]!; p1 = samples[b + 2]!; v1 = samples[b + 5]!;
+      z[n] = h00 * p0 + h10 * v0 + h01 * p1 + h11 * v1;
+      w[n] = d00 * p0 + d10 * v0 + d01 * p1 + d11 * v1;
+    }
+  }
+
   /** Interpolated position and velocity of object i at t (ms) into out[off..off+5]. */
   stateInto(i: number, t: number, out: Float64Array, off: number): void {
     const h = this.stepMs[i]!;

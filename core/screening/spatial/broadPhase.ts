@@ -56,42 +56,43 @@ export function broadPhase(
   stats: BroadPhaseStats,
   cancelled: () => boolean,
 ): boolean {
-  const members: number[] = [];
-  for (const i of tracks.members) if (tracks.ok[i]) members.push(i);
-  const n = tracks.ok.length;
+  const list: number[] = [];
+  for (const i of tracks.members) if (tracks.ok[i]) list.push(i);
+  const members = Int32Array.from(list);
+  const nm = members.length;
   const half = s.stepMs / 2000; // Δ/2 in seconds
-  const q = stepPads(tracks, members, s.stepMs);
-  const cellKm = indexCellKm(tracks, members, s);
-  const st = new Float64Array(n * 6);
-  const R = new Float64Array(n);
+  const q = stepPads(tracks, list, s.stepMs);
+  const cellKm = indexCellKm(tracks, list, s);
   const D = s.dKm;
-  // The step's states gathered in cell order, so pair loops read memory in sequence.
-  const cap = members.length;
-  const gx = new Float64Array(cap), gy = new Float64Array(cap), gz = new Float64Array(cap);
-  const gu = new Float64Array(cap), gv = new Float64Array(cap), gw = new Float64Array(cap);
-  const gR = new Float64Array(cap), gq = new Float64Array(cap);
+  // The step's states by member (structure of arrays), then gathered in cell order, so pair
+  // loops read memory in sequence.
+  const px = new Float64Array(nm), py = new Float64Array(nm), pz = new Float64Array(nm);
+  const pu = new Float64Array(nm), pv = new Float64Array(nm), pw = new Float64Array(nm);
+  const qm = new Float64Array(nm);
+  for (let m = 0; m < nm; m++) qm[m] = q[members[m]!]!;
+  const gx = new Float64Array(nm), gy = new Float64Array(nm), gz = new Float64Array(nm);
+  const gu = new Float64Array(nm), gv = new Float64Array(nm), gw = new Float64Array(nm);
+  const gR = new Float64Array(nm), gq = new Float64Array(nm);
   let tests = 0;
   for (let k = k0; k < k1; k++) {
     if (cancelled()) return false;
     const t = s.start + (k + 0.5) * s.stepMs;
+    tracks.statesAt(t, members, px, py, pz, pu, pv, pw);
     cells.reset(cellKm);
-    for (let m = 0; m < members.length; m++) {
-      const i = members[m]!;
-      const o = i * 6;
-      tracks.stateInto(i, t, st, o);
-      R[i] = Math.sqrt(st[o + 3]! * st[o + 3]! + st[o + 4]! * st[o + 4]! + st[o + 5]! * st[o + 5]!) * half + q[i]!;
-      cells.add(i, st[o]!, st[o + 1]!, st[o + 2]!);
-    }
+    for (let m = 0; m < nm; m++) cells.add(m, px[m]!, py[m]!, pz[m]!);
     cells.build();
     const sorted = cells.sorted;
-    for (let x = 0; x < members.length; x++) {
-      const o = sorted[x]! * 6;
-      gx[x] = st[o]!; gy[x] = st[o + 1]!; gz[x] = st[o + 2]!;
-      gu[x] = st[o + 3]!; gv[x] = st[o + 4]!; gw[x] = st[o + 5]!;
-      gR[x] = D + R[sorted[x]!]!; gq[x] = q[sorted[x]!]!;
+    for (let x = 0; x < nm; x++) {
+      const m = sorted[x]!;
+      const u = pu[m]!, v = pv[m]!, w = pw[m]!;
+      gx[x] = px[m]!; gy[x] = py[m]!; gz[x] = pz[m]!;
+      gu[x] = u; gv[x] = v; gw[x] = w;
+      // D + R_m, R_m = |w_m|·Δ/2 + q_m
+      gR[x] = D + (Math.sqrt(u * u + v * v + w * w) * half + qm[m]!);
+      gq[x] = qm[m]!;
     }
     stats.steps++;
-    stats.objectSteps += members.length;
+    stats.objectSteps += nm;
     const nc = cells.cells, keys = cells.cellKeys, at = cells.cellStart;
     // pairs inside each cell
     for (let c = 0; c < nc; c++) if (at[c + 1]! - at[c]! > 1) pairsOf(at[c]!, at[c + 1]!, -1, -1, k);
@@ -131,7 +132,8 @@ export function broadPhase(
         const ex = dx + wx * tau, ey = dy + wy * tau, ez = dz + wz * tau;
         const l2 = qa + gq[y]!;
         if (ex * ex + ey * ey + ez * ez > l2 * l2) continue;
-        const a = sorted[x]!, b = sorted[y]!;
+        // sorted holds member indices: back to object indices
+        const a = members[sorted[x]!]!, b = members[sorted[y]!]!;
         const i = a < b ? a : b, j = a < b ? b : a;
         if (!keep(i, j)) continue;
         stats.candidates++;

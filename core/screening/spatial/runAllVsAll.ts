@@ -37,18 +37,17 @@ export async function runAllVsAll(
 ): Promise<ChunkResult[]> {
   if (nWorkers <= 0) {
     const c = new AllVsAllChunk(elementSets, win, control, shard);
-    return await drive([c], c, elementSets.length, win);
+    return await drive([c], { role: c.role, flagged: c.flaggedIds().length }, elementSets.length, win);
   }
   const workers = await startWorkers('./worker.ts', import.meta.url, nWorkers);
   const apis: Remote<AllVsAllWorkerApi>[] = workers.map((w) => wrap<AllVsAllWorkerApi>(nodeEndpoint(w)));
   try {
     const packed = packSets(elementSets);
     // The roles (indexed, short-lived, flagged) are computed the same way in every thread; this
-    // thread needs them too, to choose the pairwise objects.
-    const [, local] = await Promise.all([
-      Promise.all(apis.map((a) => a.init(packed, win, control.buffer as SharedArrayBuffer, shard ?? null))),
-      Promise.resolve(new AllVsAllChunk(elementSets, win, new Int32Array(new SharedArrayBuffer(8)), shard)),
-    ]);
+    // thread needs them too, to choose the pairwise objects: the first worker's are taken
+    // (computing them here as well would compete with the workers for the cores).
+    const roles = await Promise.all(apis.map((a) => a.init(packed, win, control.buffer as SharedArrayBuffer, shard ?? null)));
+    const local = { role: roles[0]!, flagged: roles[0]!.reduce((n, r) => n + (r === 2 ? 1 : 0), 0) };
     return await drive(apis as unknown as Side[], local, elementSets.length, win);
   } finally {
     for (const a of apis) a[releaseProxy]();
@@ -56,14 +55,30 @@ export async function runAllVsAll(
   }
 }
 
-async function drive(sides: Side[], local: AllVsAllChunk, total: number, win: WindowSettings): Promise<ChunkResult[]> {
+/** Each object's role (AllVsAllChunk.role) and how many are flagged (left out). */
+interface Roles {
+  readonly role: Uint8Array;
+  readonly flagged: number;
+}
+
+async function drive(sides: Side[], local: Roles, total: number, win: WindowSettings): Promise<ChunkResult[]> {
   const n = sides.length;
   const { steps, blocks } = stepPlan(win);
   const indexUnits = Math.floor(total / 2);
-  // Blocks interleaved among threads; each block's share of the progress units.
+  // Blocks handed out one at a time to whichever thread is free (blocks differ in cost, and
+  // so do threads on a shared machine); each block's share of the progress units.
   const share = (b: number) => Math.floor(((b + 1) * indexUnits) / blocks) - Math.floor((b * indexUnits) / blocks);
-  const mine = sides.map((_, w) => Array.from({ length: blocks }, (_, b) => b).filter((b) => b % n === w));
-  const broad = await Promise.all(sides.map((s, w) => s.broad(mine[w]!, mine[w]!.map(share))));
+  let next = 0;
+  const broad = await Promise.all(
+    sides.map(async (s) => {
+      const parts: BroadResult[] = [];
+      while (next < blocks) {
+        const b = next++;
+        parts.push(await s.broad([b], [share(b)]));
+      }
+      return joinBroad(parts);
+    }),
+  );
 
   // Indexed objects whose sampling failed somewhere are screened pairwise, with the short-lived.
   const failed = new Set(broad.flatMap((r) => r.failed));
@@ -86,9 +101,29 @@ async function drive(sides: Side[], local: AllVsAllChunk, total: number, win: Wi
     encounters: [...refined[w]!.encounters, ...pw[w]!.encounters],
     flagged: [...refined[w]!.flagged, ...pw[w]!.flagged],
     // Session statistics are cumulative per thread: the last call's are the thread's total.
-    stats: { ...stats[w], ...pw[w]!.stats, indexedObjects: w === 0 ? total - pairwise.length - local.flaggedIds().length : 0 },
+    stats: { ...stats[w], ...pw[w]!.stats, indexedObjects: w === 0 ? total - pairwise.length - local.flagged : 0 },
     cancelled: refined[w]!.cancelled || pw[w]!.cancelled,
   }));
+}
+
+/** One thread's results of several broad() calls as one. */
+function joinBroad(parts: readonly BroadResult[]): BroadResult {
+  const stats = { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0, sgp4Evaluations: 0 };
+  for (const p of parts) for (const k of Object.keys(stats) as (keyof typeof stats)[]) stats[k] += p.stats[k];
+  const cat = (pick: (c: BroadResult['candidates']) => Int32Array): Int32Array => {
+    const out = new Int32Array(parts.reduce((a, p) => a + pick(p.candidates).length, 0));
+    let at = 0;
+    for (const p of parts) {
+      out.set(pick(p.candidates), at);
+      at += pick(p.candidates).length;
+    }
+    return out;
+  };
+  return {
+    candidates: { i: cat((c) => c.i), j: cat((c) => c.j), k: cat((c) => c.k) },
+    stats,
+    failed: [...new Set(parts.flatMap((p) => p.failed))],
+  };
 }
 
 function dropObjects(c: BroadResult['candidates'], drop: Set<number>): BroadResult['candidates'] {

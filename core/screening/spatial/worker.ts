@@ -10,7 +10,8 @@ import type { ShardSpec } from './shard.js';
 
 /** The all-vs-all worker's API, called through comlink from runAllVsAll.ts. */
 export interface AllVsAllWorkerApi {
-  init(packed: PackedSets, settings: WindowSettings, control: SharedArrayBuffer, shard: ShardSpec | null): void;
+  /** returns each object's role (AllVsAllChunk.role) */
+  init(packed: PackedSets, settings: WindowSettings, control: SharedArrayBuffer, shard: ShardSpec | null): Uint8Array;
   broad(blocks: number[], units: number[]): BroadResult;
   refine(pairs: PairRegions, units: number): ChunkResult;
   screenPairwise(objects: number[], all: number[]): ChunkResult;
@@ -25,6 +26,7 @@ const need = (): AllVsAllChunk => {
 const api: AllVsAllWorkerApi = {
   init(packed, settings, control, shard) {
     chunk = new AllVsAllChunk(unpackSets(packed), settings, new Int32Array(control), shard ?? undefined);
+    return chunk.role;
   },
   broad(blocks, units) {
     const r = need().broad(blocks, units);

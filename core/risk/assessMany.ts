@@ -1,0 +1,54 @@
+/**
+ * The risk of many encounters at once (an all-vs-all run has ~10⁵): assessEncounter for each,
+ * shared among worker threads in batches when there are enough of them to pay for starting the
+ * threads. Each assessment is a pure function of its job, so the results are those of the
+ * same calls in this thread, in the jobs' order, whatever the thread count.
+ */
+import { wrap, releaseProxy } from 'comlink';
+import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
+import { availableParallelism } from 'node:os';
+import type { RiskAssessment } from '../events/index.js';
+import { startWorkers } from '../workers/entry.js';
+import { assessEncounter, type AssessInputs, type EncounterAtTca } from './assess.js';
+import type { RiskWorkerApi } from './worker.js';
+
+/**
+ * One encounter and what its assessment needs, no more: a job is copied to a thread, and the
+ * copy costs by the field (history given as historyStats, not as the element sets; the element
+ * set as the three numbers the default table reads).
+ */
+export interface RiskJob {
+  readonly encounter: EncounterAtTca;
+  readonly inputs: AssessInputs;
+}
+
+/** Below this many jobs, starting threads costs more than it saves (~0.1 s per thread). */
+export const PARALLEL_RISK_MIN_JOBS = 2000;
+/** Jobs per message to a thread: large enough that messaging is cheap, small enough to balance. */
+const BATCH = 1000;
+
+/** Assessments of `jobs` in their order; `workers` threads (default one per core; 0: this thread). */
+export async function assessMany(jobs: readonly RiskJob[], workers = availableParallelism()): Promise<RiskAssessment[]> {
+  const n = Math.min(workers, Math.ceil(jobs.length / BATCH));
+  if (n <= 0 || jobs.length < PARALLEL_RISK_MIN_JOBS) return jobs.map((j) => assessEncounter(j.encounter, j.inputs));
+  const threads = await startWorkers('./worker.ts', import.meta.url, n);
+  const apis = threads.map((w) => wrap<RiskWorkerApi>(nodeEndpoint(w)));
+  try {
+    const out = new Array<RiskAssessment>(jobs.length);
+    let next = 0;
+    await Promise.all(
+      apis.map(async (api) => {
+        while (next < jobs.length) {
+          const from = next;
+          next = Math.min(jobs.length, next + BATCH);
+          const done = await api.assess(jobs.slice(from, next) as RiskJob[]);
+          for (let k = 0; k < done.length; k++) out[from + k] = done[k]!;
+        }
+      }),
+    );
+    return out;
+  } finally {
+    for (const a of apis) a[releaseProxy]();
+    await Promise.all(threads.map((w) => w.terminate()));
+  }
+}
