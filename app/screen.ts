@@ -96,6 +96,9 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
         }
       : {}),
   });
+  // One turn of the event loop first, so the screening hands the workers their catalogue
+  // before this thread spends its time on the fingerprint.
+  await new Promise<void>((resolve) => setImmediate(resolve));
   let runId: string;
   try {
     runId = createRun(db, req.settings, fingerprintOfSets(sets), sets.length);

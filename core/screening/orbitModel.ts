@@ -4,6 +4,7 @@ import type { FailureReason } from '../propagation/trajectory.js';
 import { reasonForSgp4Code } from '../propagation/sgp4.js';
 import { sgp4Into } from '../propagation/sgp4Kernel.js';
 import { R_EARTH_WGS72 } from '../units.js';
+import { norm3 } from '../math/norm.js';
 
 const TWO_PI = 2 * Math.PI;
 const MS_PER_MIN = 60_000;
@@ -123,7 +124,7 @@ export function buildSgp4Model(
     vel[k * 3] = PV[3]!;
     vel[k * 3 + 1] = PV[4]!;
     vel[k * 3 + 2] = PV[5]!;
-    vMax = Math.max(vMax, Math.hypot(PV[3]!, PV[4]!, PV[5]!));
+    vMax = Math.max(vMax, norm3(PV[3]!, PV[4]!, PV[5]!));
   }
   const model = new KeplerModel(start, stepMin * MS_PER_MIN, nNodes, el);
   // Measure |model − SGP4| at nodes and mid-nodes.
@@ -131,8 +132,8 @@ export function buildSgp4Model(
   let err = 0, verr = 0;
   for (let k = 0; k < nNodes; k++) {
     model.stateInto((start + k * stepMin * MS_PER_MIN) as Instant, buf, 0);
-    err = Math.max(err, Math.hypot(buf[0]! - pos[k * 3]!, buf[1]! - pos[k * 3 + 1]!, buf[2]! - pos[k * 3 + 2]!));
-    verr = Math.max(verr, Math.hypot(buf[3]! - vel[k * 3]!, buf[4]! - vel[k * 3 + 1]!, buf[5]! - vel[k * 3 + 2]!));
+    err = Math.max(err, norm3(buf[0]! - pos[k * 3]!, buf[1]! - pos[k * 3 + 1]!, buf[2]! - pos[k * 3 + 2]!));
+    verr = Math.max(verr, norm3(buf[3]! - vel[k * 3]!, buf[4]! - vel[k * 3 + 1]!, buf[5]! - vel[k * 3 + 2]!));
   }
   // Between nodes: SGP4's periodic terms vary with the orbital phase, and the node spacing can
   // be a near-multiple of the period (phase-locked samples all see the same error, measured: an
@@ -152,9 +153,9 @@ export function buildSgp4Model(
       const code = sgp4Into(satrec, tm, PV, 0);
       if (code !== 0) return reasonForSgp4Code(code);
       model.stateInto((start + (tm - t0Min) * MS_PER_MIN) as Instant, buf, 0);
-      err = Math.max(err, Math.hypot(buf[0]! - PV[0]!, buf[1]! - PV[1]!, buf[2]! - PV[2]!));
-      verr = Math.max(verr, Math.hypot(buf[3]! - PV[3]!, buf[4]! - PV[4]!, buf[5]! - PV[5]!));
-      vMax = Math.max(vMax, Math.hypot(PV[3]!, PV[4]!, PV[5]!));
+      err = Math.max(err, norm3(buf[0]! - PV[0]!, buf[1]! - PV[1]!, buf[2]! - PV[2]!));
+      verr = Math.max(verr, norm3(buf[3]! - PV[3]!, buf[4]! - PV[4]!, buf[5]! - PV[5]!));
+      vMax = Math.max(vMax, norm3(PV[3]!, PV[4]!, PV[5]!));
     }
   }
   // Eccentric orbits: SGP4's periodic terms peak sharply near perigee, where uniform samples
@@ -174,8 +175,8 @@ export function buildSgp4Model(
         if (tMs > end) continue;
         if (sgp4Into(satrec, tm, PV, 0) !== 0) continue; // a failure here is judged where the object is used
         model.stateInto(tMs as Instant, buf, 0);
-        err = Math.max(err, Math.hypot(buf[0]! - PV[0]!, buf[1]! - PV[1]!, buf[2]! - PV[2]!));
-        verr = Math.max(verr, Math.hypot(buf[3]! - PV[3]!, buf[4]! - PV[4]!, buf[5]! - PV[5]!));
+        err = Math.max(err, norm3(buf[0]! - PV[0]!, buf[1]! - PV[1]!, buf[2]! - PV[2]!));
+        verr = Math.max(verr, norm3(buf[3]! - PV[3]!, buf[4]! - PV[4]!, buf[5]! - PV[5]!));
       }
     }
   }

@@ -1,6 +1,7 @@
 import type { Instant } from '../time/instant.js';
 import type { FailureReason, Trajectory } from '../propagation/trajectory.js';
 import { buildPlanarTrack, type PlanarTrack } from './planarTrack.js';
+import { norm3 } from '../math/norm.js';
 
 /**
  * Exact states of one object on a uniform time grid, interpolated by cubic Hermite (position
@@ -31,7 +32,7 @@ export class StateGrid {
     if (this.rMax < 0) {
       let m = 0;
       const x = this.states;
-      for (let j = 0; j < this.count; j++) m = Math.max(m, Math.hypot(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
+      for (let j = 0; j < this.count; j++) m = Math.max(m, norm3(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
       // Between grid points |r| can exceed the samples by at most v²h²/(8r) ≪ 1 km; pad 1 km.
       this.rMax = m + 1;
     }
@@ -43,7 +44,7 @@ export class StateGrid {
     if (this.rMin < 0) {
       let m = Infinity;
       const x = this.states;
-      for (let j = 0; j < this.count; j++) m = Math.min(m, Math.hypot(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
+      for (let j = 0; j < this.count; j++) m = Math.min(m, norm3(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
       this.rMin = Math.max(0, m - 1);
     }
     return this.rMin;
@@ -128,7 +129,7 @@ export function buildStateGridPoints(
     const t = (start + j * stepMs) as Instant;
     const f = traj.stateInto(t, states, j * 6);
     if (f) return { failure: f, at: t };
-    vMax = Math.max(vMax, Math.hypot(states[j * 6 + 3]!, states[j * 6 + 4]!, states[j * 6 + 5]!));
+    vMax = Math.max(vMax, norm3(states[j * 6 + 3]!, states[j * 6 + 4]!, states[j * 6 + 5]!));
   }
   return new StateGrid(start, stepMs, count, states, vMax);
 }

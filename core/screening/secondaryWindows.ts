@@ -1,6 +1,7 @@
 import type { Instant } from '../time/instant.js';
 import type { OrbitModel } from './orbitModel.js';
 import { pushRegion, type Regions } from './regions.js';
+import { norm2 } from '../math/norm.js';
 
 /**
  * Time windows in which the secondary's model position can be within `thrKm` of the primary's
@@ -174,7 +175,7 @@ export function secondaryPlaneWindows(
     const x = nrm[n]! * cO + nrm[n + 1]! * sO;
     const y = -nrm[n]! * sO * ci + nrm[n + 1]! * cO * ci + nrm[n + 2]! * si;
     gTheta = Math.atan2(y, x);
-    gA = Math.hypot(x, y);
+    gA = norm2(x, y);
   };
   geom(0);
   let th0 = gTheta, A0 = gA;
