@@ -1,10 +1,8 @@
 import { jday, type SatRec } from 'satellite.js';
 import { days2mdhms } from '../../node_modules/satellite.js/dist/ext.js';
-import type { SatRecInit } from '../../node_modules/satellite.js/dist/propagation/SatRec.js';
-// Not exported by the package (see makeSatrec); a file path bypasses the export map.
-import { sgp4init } from '../../node_modules/satellite.js/dist/propagation/sgp4init.js';
 import type { ElementSet } from '../elements/elementSet.js';
 import { sgp4Into } from './sgp4Kernel.js';
+import { Sgp4Record, sgp4InitRecord } from './sgp4InitKernel.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
 import type { FailureReason, MeanElementSource, Trajectory } from './trajectory.js';
 import { vec3, type StateVector, type Km, type KmS } from '../units.js';
@@ -67,35 +65,23 @@ export function makeSatrec(es: ElementSet): SatRec {
   const epochdays = referenceDayOfYear(es.epoch, year);
   const { mon, day, hr, minute, sec } = days2mdhms(year, epochdays);
   const jdsatepoch = jday(year, mon, day, hr, minute, sec);
-  const rec: SatRecInit = {
-    error: 0,
-    satnum: String(Number.parseInt(es.objectId, 10) || 0),
-    epochyr: year % 100,
-    epochdays,
-    ndot: es.meanMotionDot / (XPDOTP * 1440),
-    nddot: es.meanMotionDdot / (XPDOTP * 1440 * 1440),
-    bstar: es.bstar,
-    inclo: es.inclinationDeg * DEG,
-    nodeo: es.raanDeg * DEG,
-    ecco: es.eccentricity,
-    argpo: es.argPerigeeDeg * DEG,
-    mo: es.meanAnomalyDeg * DEG,
-    no: es.meanMotionRevPerDay / XPDOTP,
-    jdsatepoch,
-  };
-  sgp4init(rec, {
-    opsmode: 'i',
-    satn: rec.satnum,
-    epoch: jdsatepoch - JD_1950,
-    xbstar: rec.bstar,
-    xecco: rec.ecco,
-    xargpo: rec.argpo,
-    xinclo: rec.inclo,
-    xmo: rec.mo,
-    xno: rec.no,
-    xnodeo: rec.nodeo,
-  });
-  return rec;
+  // The record is filled as satellite.js's SatRecInit was; sgp4InitRecord then initialises it
+  // (near-Earth: the fixed-shape port; deep space: satellite.js's sgp4init, see that file).
+  const rec = new Sgp4Record();
+  rec.satnum = String(Number.parseInt(es.objectId, 10) || 0);
+  rec.epochyr = year % 100;
+  rec.epochdays = epochdays;
+  rec.ndot = es.meanMotionDot / (XPDOTP * 1440);
+  rec.nddot = es.meanMotionDdot / (XPDOTP * 1440 * 1440);
+  rec.bstar = es.bstar;
+  rec.inclo = es.inclinationDeg * DEG;
+  rec.nodeo = es.raanDeg * DEG;
+  rec.ecco = es.eccentricity;
+  rec.argpo = es.argPerigeeDeg * DEG;
+  rec.mo = es.meanAnomalyDeg * DEG;
+  rec.no = es.meanMotionRevPerDay / XPDOTP;
+  rec.jdsatepoch = jdsatepoch;
+  return sgp4InitRecord(rec, 'i', jdsatepoch - JD_1950);
 }
 
 /**
