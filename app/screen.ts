@@ -76,27 +76,40 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
       throw new KeepclearError('NOT_FOUND', `no element set or covering ephemeris for primary ${missing.join(', ')}; import one first or check the id`);
     }
   }
-  // The fingerprint of the sets already loaded: reading the catalogue twice cost as much as the load.
   const phase = (name: string): void => {
     const now = performance.now();
     req.onPhase?.(name, now - mark);
     mark = now;
   };
   phase('load');
-  const runId = createRun(db, req.settings, fingerprintOfSets(sets), sets.length);
+  // The screening starts first and the run row is written while the workers work: the main
+  // thread would otherwise spend the fingerprint's time (~0.1 s for 30,000 sets) before any
+  // worker starts. The fingerprint is of the sets already loaded (no second catalogue read).
+  const screening = runScreening(sets, req.settings, {
+    ...(req.workers !== undefined ? { workers: req.workers } : {}),
+    ...(req.onProgress ? { onProgress: req.onProgress } : {}),
+    ...(req.signal ? { signal: req.signal } : {}),
+    ...(choice.used.size > 0
+      ? {
+          // The data behind an ephemeris is as old as its CREATION_DATE: that is the primary's epoch.
+          primaryTrajectories: [...choice.used.values()].map((u) => ({ trajectory: u.trajectory, epoch: u.summary.creationDate })),
+        }
+      : {}),
+  });
+  // One turn of the event loop first, so the screening hands the workers their catalogue
+  // before this thread spends its time on the fingerprint.
+  await new Promise<void>((resolve) => setImmediate(resolve));
+  let runId: string;
+  try {
+    runId = createRun(db, req.settings, fingerprintOfSets(sets), sets.length);
+  } catch (err) {
+    // Nothing stored: let the workers finish, drop what they found.
+    await screening.catch(() => undefined);
+    throw err;
+  }
   let outcome;
   try {
-    outcome = await runScreening(sets, req.settings, {
-      ...(req.workers !== undefined ? { workers: req.workers } : {}),
-      ...(req.onProgress ? { onProgress: req.onProgress } : {}),
-      ...(req.signal ? { signal: req.signal } : {}),
-      ...(choice.used.size > 0
-        ? {
-            // The data behind an ephemeris is as old as its CREATION_DATE: that is the primary's epoch.
-            primaryTrajectories: [...choice.used.values()].map((u) => ({ trajectory: u.trajectory, epoch: u.summary.creationDate })),
-          }
-        : {}),
-    });
+    outcome = await screening;
   } catch (err) {
     finishRun(db, runId, { status: 'failed', wallMs: 0, flagged: [], events: [] });
     throw err;

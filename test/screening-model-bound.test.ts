@@ -58,12 +58,12 @@ describe('filter model error bound (ε) against SGP4', () => {
     // Deep space (12-h nodes, 15 intervals of 680 min): periods of a half interval / k, where
     // every node and mid-node sees the same orbital phase. Such an orbit once hid an error of
     // 16.6 km behind ε = 9.3 km (near-polar, 113 min, when every orbit had 12-h nodes).
-    // Near-Earth (24-h nodes, 8 intervals of 1275 min, sample pairs every half interval):
-    // periods of a half interval / k below 225 min (the 170- and 113-min orbits above are
+    // Near-Earth (24-h nodes, 8 intervals of 1275 min, one sample pair per interval): periods
+    // of an interval / k below 225 min (the 170- and 113-min orbits above are
     // near-Earth too, so they now test the 24-h layout).
     const periods = [
       ...[1, 2, 3].map((k) => intervalMin(MODEL_NODE_SPACING_MIN.deepSpace) / 2 / k),
-      ...[3, 4, 5, 6, 7].map((k) => intervalMin(MODEL_NODE_SPACING_MIN.nearEarth) / 2 / k),
+      ...[6, 7, 8, 10, 12, 14].map((k) => intervalMin(MODEL_NODE_SPACING_MIN.nearEarth) / k),
     ];
     const sets: ElementSet[] = [];
     let id = 1;

@@ -20,6 +20,7 @@ import type { Instant } from '../core/time/instant.js';
 import type { Encounter } from '../core/events/index.js';
 import { bruteForceEvents, compareToReference, describeFound, describeRef } from './support/bruteForce.js';
 import { elementSet, RE_WGS72 } from './support/elements.js';
+import { compareEngines, pairKey } from './support/compareEngines.js';
 
 /** Requirement (DESIGN.md): TCA within 1 ms, miss within 1 m of a dense evaluation. */
 const TCA_TOL_MS = 1;
@@ -74,26 +75,6 @@ const settingsOf = (start: number, end: number, radiusKm: number) => ({
   end: end as Instant,
   volume: { kind: 'sphere' as const, radiusKm },
 });
-
-const pairKey = (e: { primary: string; secondary: string }) => [e.primary, e.secondary].sort().join('~');
-
-/** Event-for-event comparison of two engines' encounters (unordered pairs, TCA within 1 s to match). */
-function compareEngines(a: readonly Encounter[], b: readonly Encounter[]) {
-  const unmatched = [...b];
-  const missing: Encounter[] = [];
-  let worstTca = 0, worstMiss = 0;
-  for (const e of a) {
-    const j = unmatched.findIndex((x) => pairKey(x) === pairKey(e) && Math.abs(x.tca - e.tca) < 1000);
-    if (j < 0) {
-      missing.push(e);
-      continue;
-    }
-    const x = unmatched.splice(j, 1)[0]!;
-    worstTca = Math.max(worstTca, Math.abs(x.tca - e.tca));
-    worstMiss = Math.max(worstMiss, Math.abs(x.missKm - e.missKm));
-  }
-  return { missing, extra: unmatched, worstTca, worstMiss };
-}
 
 describe('spatial index vs brute force: dense 550 km shell, all vs all', () => {
   it('every reference event is found (TCA ≤ 1 ms, miss ≤ 1 m) and nothing else', async () => {

@@ -160,19 +160,41 @@ export default defineCommand<ScreenOptions>({
   ],
   async run(_args, o) {
     const settings = settingsFrom(o, Date.now());
-    const { openDatabase, defaultDbPath } = await import('../../db/index.js');
-    const { importFiles } = await import('../../app/import/index.js');
-    const { screenAndStore } = await import('../../app/screen.js');
-    const { eventToJson, runToJson } = await import('../../app/eventJson.js');
-    const { seriesStatesOf } = await import('../../app/seriesJson.js');
-    const { countByState } = await import('../../app/series.js');
-    const { attentionJson, attentionOf, updateAttentionFile } = await import('../../app/attention.js');
-    const { seriesCounts } = await import('../present/series.js');
-    const { presentFileOutcome, presentImportTotal } = await import('../present/imports.js');
-    const { eventSummary } = await import('../present/events.js');
-    const { writeJsonWithCaution, writeJsonListWithCaution } = await import('../present/json.js');
-    const { progress } = await import('../present/progress.js');
-    const { describeEphemeris } = await import('../../app/ephemerisText.js');
+    if (!settings.shard && settings.primaries !== 'all' && o.workers !== 0) {
+      // The workers load their modules while this thread loads its own and reads the catalogue.
+      const { prestartScreeningWorkers } = await import('../../core/screening/run.js');
+      prestartScreeningWorkers(o.workers);
+    }
+    // Loaded together: the module loader reads and compiles them concurrently.
+    const [
+      { openDatabase, defaultDbPath },
+      { importFiles },
+      { screenAndStore },
+      { eventToJson, runToJson },
+      { seriesStatesOf },
+      { countByState },
+      { attentionJson, attentionOf, updateAttentionFile },
+      { seriesCounts },
+      { presentFileOutcome, presentImportTotal },
+      { eventSummary },
+      { writeJsonWithCaution, writeJsonListWithCaution },
+      { progress },
+      { describeEphemeris },
+    ] = await Promise.all([
+      import('../../db/index.js'),
+      import('../../app/import/index.js'),
+      import('../../app/screen.js'),
+      import('../../app/eventJson.js'),
+      import('../../app/seriesJson.js'),
+      import('../../app/series.js'),
+      import('../../app/attention.js'),
+      import('../present/series.js'),
+      import('../present/imports.js'),
+      import('../present/events.js'),
+      import('../present/json.js'),
+      import('../present/progress.js'),
+      import('../../app/ephemerisText.js'),
+    ]);
 
     const jsonOnly = o.json === '-';
     const db = openDatabase(o.db ?? defaultDbPath());

@@ -39,6 +39,7 @@
 import type { Instant } from '../time/instant.js';
 import type { FailureReason, Trajectory } from './trajectory.js';
 import { MU_EARTH_WGS72 } from '../units.js';
+import { norm3 } from '../math/norm.js';
 
 /** Angle swept at the fastest angular rate per sampling step (rad): sets the error above. */
 export const SAMPLE_TURN_RAD = 0.05;
@@ -101,9 +102,9 @@ export function sampleStepMs(state: ArrayLike<number>): number {
 /** Osculating angular rate at perigee (rad/s) from a TEME state: h / r_p². */
 function perigeeRate(s: ArrayLike<number>): number {
   const [x, y, z, vx, vy, vz] = [s[0]!, s[1]!, s[2]!, s[3]!, s[4]!, s[5]!];
-  const r = Math.hypot(x, y, z);
+  const r = norm3(x, y, z);
   const hx = y * vz - z * vy, hy = z * vx - x * vz, hz = x * vy - y * vx;
-  const h = Math.hypot(hx, hy, hz);
+  const h = norm3(hx, hy, hz);
   const v2 = vx * vx + vy * vy + vz * vz;
   const energy = v2 / 2 - MU_EARTH_WGS72 / r;
   if (!(energy < 0)) return h / (r * r);
@@ -184,8 +185,8 @@ export function sampleTrajectory(
         if (!(isLast && t > b && k === n)) failure = f;
         break;
       }
-      const r = Math.hypot(values[off]!, values[off + 1]!, values[off + 2]!);
-      const v = Math.hypot(values[off + 3]!, values[off + 4]!, values[off + 5]!);
+      const r = norm3(values[off]!, values[off + 1]!, values[off + 2]!);
+      const v = norm3(values[off + 3]!, values[off + 4]!, values[off + 5]!);
       vMax = Math.max(vMax, v);
       rMin = Math.min(rMin, r);
       rMax = Math.max(rMax, r);

@@ -1,9 +1,10 @@
-import { jday, sgp4, type SatRec } from 'satellite.js';
+import { jday, type SatRec } from 'satellite.js';
 import { days2mdhms } from '../../node_modules/satellite.js/dist/ext.js';
 import type { SatRecInit } from '../../node_modules/satellite.js/dist/propagation/SatRec.js';
 // Not exported by the package (see makeSatrec); a file path bypasses the export map.
 import { sgp4init } from '../../node_modules/satellite.js/dist/propagation/sgp4init.js';
 import type { ElementSet } from '../elements/elementSet.js';
+import { sgp4Into } from './sgp4Kernel.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
 import type { FailureReason, MeanElementSource, Trajectory } from './trajectory.js';
 import { vec3, type StateVector, type Km, type KmS } from '../units.js';
@@ -149,17 +150,11 @@ export class Sgp4Trajectory implements Trajectory, MeanElementSource {
   stateAtMinutesInto(tsince: number, out: Float64Array, offset: number): FailureReason | null {
     const rec = this.rec ?? this.satrec;
     if (this.failure) return this.failure;
-    const pv = sgp4(rec, tsince);
-    if (!pv) return reasonForSgp4Code(rec.error);
-    const p = pv.position, v = pv.velocity;
+    // The non-allocating port of satellite.js's sgp4 (same doubles; see sgp4Kernel.ts).
+    const code = sgp4Into(rec, tsince, out, offset);
+    if (code !== 0) return reasonForSgp4Code(code);
     // NaN never compares equal to itself; a NaN state must not reach screening as a position.
-    if (p.x !== p.x || v.x !== v.x) return 'bad-elements';
-    out[offset] = p.x;
-    out[offset + 1] = p.y;
-    out[offset + 2] = p.z;
-    out[offset + 3] = v.x;
-    out[offset + 4] = v.y;
-    out[offset + 5] = v.z;
+    if (out[offset] !== out[offset] || out[offset + 3] !== out[offset + 3]) return 'bad-elements';
     return null;
   }
 

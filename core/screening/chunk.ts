@@ -67,8 +67,8 @@ export class ScreeningChunk {
     for (const l of layout) {
       const o = this.objects[this.byId.get(l.id)!]!;
       const g = this.session.grid(o, shared.subarray(l.offset, l.offset + l.count * 6));
-      // A primary that decays inside the window has a shorter grid.
-      out.push({ ...l, count: g ? g.count : 0, vMaxKmS: g ? g.vMaxKmS : -1 });
+      // A primary that decays inside the window has a shorter grid (and a step that ends it at the decay).
+      out.push({ ...l, count: g ? g.count : 0, stepMs: g ? g.stepMs : l.stepMs, vMaxKmS: g ? g.vMaxKmS : -1 });
     }
     return out;
   }

@@ -6,7 +6,7 @@
  */
 import type { Instant } from '../time/instant.js';
 import type { OrbitModel } from './orbitModel.js';
-import { buildStateGrid, gridStepMs, type StateGrid } from './primaryGrid.js';
+import { buildStateGrid, buildStateGridUntil, gridEnd, gridStepMs, type StateGrid } from './primaryGrid.js';
 import { candidateRegions, type FilterStats } from './pairFilter.js';
 import { padClipMerge, type Regions } from './regions.js';
 import { primaryBlockNormals, secondaryBlocks, type SecondaryBlocks } from './secondaryWindows.js';
@@ -98,19 +98,35 @@ export class ScreeningSession {
     return this.flags.list();
   }
 
-  /** Exact grid of a primary (up to its decay, if any), or null if it cannot be propagated. */
+  /**
+   * Exact grid of a primary, or null if it cannot be propagated. An object that decays inside
+   * the window has a grid ending exactly at its decay (validity.ts); a failure the validity
+   * probes did not see shortens its valid span to the first failure (ValidityProbe.failureSeen)
+   * and the grid ends there; should a grid point fail all the same, the grid ends at its last
+   * point before it. screenPair screens the object up to its grid's end.
+   */
   grid(o: ScreeningObject, buffer?: Float64Array): StateGrid | null {
     const until = this.validUntil(o);
     if (until === null) return null;
-    const end = Math.min(this.settings.end, until) as Instant;
-    if (end <= this.settings.start) return null;
-    const g = buildStateGrid(o.trajectory, this.settings.start, end, o.gridStepMs ?? gridStepMs(1440 / o.periodMin), buffer);
-    if ('failure' in g) {
-      this.flag(o.id, `propagation failed: ${g.failure} at ${new Date(g.at).toISOString()}`);
-      return null;
+    const { start, end } = this.settings;
+    const step = o.gridStepMs ?? gridStepMs(1440 / o.periodMin);
+    let stop = until;
+    if (until >= end) {
+      const g = buildStateGrid(o.trajectory, start, end, step, buffer);
+      if (!('failure' in g)) {
+        this.stats.sgp4Evaluations += g.count;
+        return g;
+      }
+      // A failure between the validity probes: the object is screened up to its first failure.
+      const first = this.validity.failureSeen(o, g.at);
+      if (first === null) return null;
+      stop = Math.min(first, g.at);
     }
-    this.stats.sgp4Evaluations += g.count;
-    return g;
+    const r = buildStateGridUntil(o.trajectory, start, Math.min(stop, end), step, buffer);
+    if (r?.failure) this.flag(o.id, `propagation failed: ${r.failure} at ${new Date(r.failedAt).toISOString()}`);
+    if (!r) return null;
+    this.stats.sgp4Evaluations += r.grid.count;
+    return r.grid;
   }
 
   private sharedTables(p: ScreeningObject, mp: OrbitModel, s: ScreeningObject, ms: OrbitModel) {
@@ -149,8 +165,9 @@ export class ScreeningSession {
       return [];
     }
     const start = this.settings.start;
-    // An object that decays inside the window is screened up to that instant.
-    const end = Math.min(this.settings.end, this.validUntil(p) ?? 0, this.validUntil(s) ?? 0) as Instant;
+    // An object that decays inside the window is screened up to that instant; a primary whose
+    // grid stops short (a failure the validity probe did not see) up to its grid's end.
+    const end = Math.min(this.settings.end, this.validUntil(p) ?? 0, this.validUntil(s) ?? 0, gridEnd(grid)) as Instant;
     if (end <= start) return [];
     // The shared tables cover the whole window; a pair cut short by a decay computes its own.
     const shared = end === this.settings.end && mp.hasPlane ? this.sharedTables(p, mp, s, ms) : null;

@@ -1,4 +1,5 @@
 import type { ScreeningVolume } from './types.js';
+import { norm3 } from '../math/norm.js';
 
 /**
  * Relative geometry of two TEME states (x y z vx vy vz, km and km/s).
@@ -6,10 +7,10 @@ import type { ScreeningVolume } from './types.js';
  */
 export function rtnBasis(p: ArrayLike<number>): [number[], number[], number[]] {
   const r = [p[0]!, p[1]!, p[2]!], v = [p[3]!, p[4]!, p[5]!];
-  const rn = Math.hypot(r[0]!, r[1]!, r[2]!);
+  const rn = norm3(r[0]!, r[1]!, r[2]!);
   const R = r.map((x) => x / rn);
   const h = [r[1]! * v[2]! - r[2]! * v[1]!, r[2]! * v[0]! - r[0]! * v[2]!, r[0]! * v[1]! - r[1]! * v[0]!];
-  const hn = Math.hypot(h[0]!, h[1]!, h[2]!);
+  const hn = norm3(h[0]!, h[1]!, h[2]!);
   const N = h.map((x) => x / hn);
   const T = [N[1]! * R[2]! - N[2]! * R[1]!, N[2]! * R[0]! - N[0]! * R[2]!, N[0]! * R[1]! - N[1]! * R[0]!];
   return [R, T, N];
@@ -26,7 +27,7 @@ export function relativeRtn(p: ArrayLike<number>, s: ArrayLike<number>): [number
 /** Angle between the two velocity vectors, degrees (0 overtaking, 180 head-on). */
 export function approachAngleDeg(p: ArrayLike<number>, s: ArrayLike<number>): number {
   const dot = p[3]! * s[3]! + p[4]! * s[4]! + p[5]! * s[5]!;
-  const c = dot / (Math.hypot(p[3]!, p[4]!, p[5]!) * Math.hypot(s[3]!, s[4]!, s[5]!));
+  const c = dot / (norm3(p[3]!, p[4]!, p[5]!) * norm3(s[3]!, s[4]!, s[5]!));
   return (Math.acos(Math.min(1, Math.max(-1, c))) * 180) / Math.PI;
 }
 
@@ -41,8 +42,8 @@ export function volumeBoundKm(v: ScreeningVolume): number {
  */
 export function volumeMetric(v: ScreeningVolume, p: ArrayLike<number>, s: ArrayLike<number>): number {
   if (v.kind === 'sphere') {
-    return Math.hypot(s[0]! - p[0]!, s[1]! - p[1]!, s[2]! - p[2]!) / v.radiusKm;
+    return norm3(s[0]! - p[0]!, s[1]! - p[1]!, s[2]! - p[2]!) / v.radiusKm;
   }
   const [r, t, n] = relativeRtn(p, s);
-  return Math.hypot(r / v.rKm, t / v.tKm, n / v.nKm);
+  return norm3(r / v.rKm, t / v.tKm, n / v.nKm);
 }

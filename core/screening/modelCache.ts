@@ -37,14 +37,16 @@ export class ModelCache {
       if (until === null) m = 'bad-elements';
       else if (src) {
         const spacing = modelNodeSpacingMin(src.satrec);
-        m = src.initFailure ?? buildSgp4Model(
-          src.satrec,
-          src.elements.epoch,
-          (this.settings.start - MODEL_MARGIN_MS) as Instant,
-          until as Instant,
-          spacing,
-        );
-        this.stats.sgp4Evaluations += 3 * Math.ceil((this.settings.end - this.settings.start) / 60_000 / spacing) + 1;
+        const build = (to: number) => {
+          this.stats.sgp4Evaluations += 3 * Math.ceil((this.settings.end - this.settings.start) / 60_000 / spacing) + 1;
+          return src.initFailure ?? buildSgp4Model(src.satrec, src.elements.epoch, (this.settings.start - MODEL_MARGIN_MS) as Instant, to as Instant, spacing);
+        };
+        m = build(until);
+        if (typeof m === 'string' && !src.initFailure) {
+          // A failure between the validity probes: model the span up to the first failure.
+          const first = this.validity.failureSeen(o);
+          if (first !== null && first < until) m = build(first);
+        }
       } else {
         m = exactModel(o.trajectory, o.vMaxKmS ?? 15, o.radiusBandKm);
       }

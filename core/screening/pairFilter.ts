@@ -4,6 +4,7 @@ import type { StateGrid } from './primaryGrid.js';
 import { TRACK_STRIDE } from './planarTrack.js';
 import { BLOCK_NORMAL_LERP_RAD, blockNormalInto, secondaryPlaneWindows, type SecondaryBlocks } from './secondaryWindows.js';
 import { intersectRegions, pushRegion, type Regions } from './regions.js';
+import { norm2, norm3 } from '../math/norm.js';
 
 export type { Regions } from './regions.js';
 
@@ -101,7 +102,7 @@ export function candidateRegions(
         s.positionInto(t as Instant, pos, 6);
       }
       if (stats) stats.distanceVisits++;
-      const sep = Math.hypot(pos[0]! - pos[6]!, pos[1]! - pos[7]!, pos[2]! - pos[8]!);
+      const sep = norm3(pos[0]! - pos[6]!, pos[1]! - pos[7]!, pos[2]! - pos[8]!);
       const lb = sep - s.epsKm - GRID_EPS_KM;
       if (!(lb > dKm)) {
         // NaN (unknown position) also lands here: never prune on missing information.
@@ -111,7 +112,7 @@ export function candidateRegions(
       }
       let clearS = (lb - dKm) / lRate;
       if (withVelocity) {
-        const v0 = Math.hypot(pos[3]! - pos[9]!, pos[4]! - pos[10]!, pos[5]! - pos[11]!) + dvBound;
+        const v0 = norm3(pos[3]! - pos[9]!, pos[4]! - pos[10]!, pos[5]! - pos[11]!) + dvBound;
         clearS = Math.max(clearS, closingStepS(lb - dKm, v0, sep + s.epsKm + GRID_EPS_KM, lRate, rLow));
       }
       if (inside >= 0) {
@@ -198,7 +199,7 @@ export function planeWindows(
     const o = blk * TRACK_STRIDE;
     const a = nrm[0]! * basis[o]! + nrm[1]! * basis[o + 1]! + nrm[2]! * basis[o + 2]!;
     const b = nrm[0]! * basis[o + 3]! + nrm[1]! * basis[o + 4]! + nrm[2]! * basis[o + 5]!;
-    const A = Math.hypot(a, b);
+    const A = norm2(a, b);
     const rhoMin = basis[o + 6]! - BETWEEN_POINTS_KM, rhoMax = basis[o + 7]!, zMax = basis[o + 8]!;
     const c = (thr + zMax + BETWEEN_POINTS_KM + rhoMax * dn) / (rhoMin * A);
     const t0 = grid.start + j0 * h, t1 = grid.start + jLast * h;

@@ -1,4 +1,5 @@
 import type { StateGrid } from './primaryGrid.js';
+import { norm2, norm3 } from '../math/norm.js';
 
 /**
  * The primary's exact grid expressed, block by block, in a basis of its own orbit plane:
@@ -37,16 +38,16 @@ export function buildPlanarTrack(grid: StateGrid): PlanarTrack {
     for (let j = j0; j < j1; j++) {
       const o = j * 6;
       const rx = x[o]!, ry = x[o + 1]!, rz = x[o + 2]!, vx = x[o + 3]!, vy = x[o + 4]!, vz = x[o + 5]!;
-      const r = Math.hypot(rx, ry, rz);
+      const r = norm3(rx, ry, rz);
       hx += (ry * vz - rz * vy) / r;
       hy += (rz * vx - rx * vz) / r;
       hz += (rx * vy - ry * vx) / r;
     }
-    const hn = Math.hypot(hx, hy, hz);
+    const hn = norm3(hx, hy, hz);
     const nx = hx / hn, ny = hy / hn, nz = hz / hn;
     // p̂ toward the ascending node (ẑ × n̂); any in-plane direction serves if the orbit is equatorial.
     let px = -ny, py = nx, pz = 0;
-    let pn = Math.hypot(px, py);
+    let pn = norm2(px, py);
     if (pn < 1e-9) { px = 1; py = 0; pn = 1; }
     px /= pn; py /= pn;
     const qx = ny * pz - nz * py, qy = nz * px - nx * pz, qz = nx * py - ny * px;
@@ -62,7 +63,7 @@ export function buildPlanarTrack(grid: StateGrid): PlanarTrack {
       if (j > j0 && ang < prev) ang += 2 * Math.PI;
       u[b * (TRACK_BLOCK + 1) + (j - j0)] = ang;
       prev = ang;
-      const rho = Math.hypot(a, c);
+      const rho = norm2(a, c);
       if (rho < rhoMin) rhoMin = rho;
       if (rho > rhoMax) rhoMax = rho;
       if (Math.abs(z) > zMax) zMax = Math.abs(z);

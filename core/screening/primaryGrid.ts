@@ -1,6 +1,7 @@
 import type { Instant } from '../time/instant.js';
 import type { FailureReason, Trajectory } from '../propagation/trajectory.js';
 import { buildPlanarTrack, type PlanarTrack } from './planarTrack.js';
+import { norm3 } from '../math/norm.js';
 
 /**
  * Exact states of one object on a uniform time grid, interpolated by cubic Hermite (position
@@ -31,7 +32,7 @@ export class StateGrid {
     if (this.rMax < 0) {
       let m = 0;
       const x = this.states;
-      for (let j = 0; j < this.count; j++) m = Math.max(m, Math.hypot(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
+      for (let j = 0; j < this.count; j++) m = Math.max(m, norm3(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
       // Between grid points |r| can exceed the samples by at most v²h²/(8r) ≪ 1 km; pad 1 km.
       this.rMax = m + 1;
     }
@@ -43,7 +44,7 @@ export class StateGrid {
     if (this.rMin < 0) {
       let m = Infinity;
       const x = this.states;
-      for (let j = 0; j < this.count; j++) m = Math.min(m, Math.hypot(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
+      for (let j = 0; j < this.count; j++) m = Math.min(m, norm3(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
       this.rMin = Math.max(0, m - 1);
     }
     return this.rMin;
@@ -110,17 +111,66 @@ export function buildStateGrid(
   stepMs: number,
   buffer?: Float64Array,
 ): StateGrid | { failure: FailureReason; at: number } {
-  const count = Math.ceil((end - start) / stepMs) + 1;
+  return buildStateGridPoints(traj, start, gridPointCount(start, end, stepMs), stepMs, buffer);
+}
+
+/** A grid of exactly `count` points from `start` (the point count given, not derived from an end in floating point). */
+export function buildStateGridPoints(
+  traj: Trajectory,
+  start: Instant,
+  count: number,
+  stepMs: number,
+  buffer?: Float64Array,
+): StateGrid | { failure: FailureReason; at: number } {
+  if (buffer && buffer.length < count * 6) throw new Error(`grid buffer holds ${buffer.length / 6} points, ${count} needed`);
   const states = buffer ?? new Float64Array(count * 6);
   let vMax = 0;
   for (let j = 0; j < count; j++) {
     const t = (start + j * stepMs) as Instant;
     const f = traj.stateInto(t, states, j * 6);
     if (f) return { failure: f, at: t };
-    vMax = Math.max(vMax, Math.hypot(states[j * 6 + 3]!, states[j * 6 + 4]!, states[j * 6 + 5]!));
+    vMax = Math.max(vMax, norm3(states[j * 6 + 3]!, states[j * 6 + 4]!, states[j * 6 + 5]!));
   }
   return new StateGrid(start, stepMs, count, states, vMax);
 }
+
+/**
+ * The grid of an object that stops propagating at `until` (≤ the window end): it ends exactly
+ * there, its step shortened to the largest ≤ `stepMs` that divides [start, until] evenly (a
+ * shorter step only makes the interpolation better), so no instant the object is screened at
+ * lies beyond its last point. If a point fails even so (SGP4's failure need not be monotonic in
+ * time), the grid ends at its last point before that failure (reported as `failure`, `failedAt`),
+ * and the object is screened up to that point. Null when not even one step can be computed.
+ */
+export function buildStateGridUntil(
+  traj: Trajectory,
+  start: Instant,
+  until: number,
+  stepMs: number,
+  buffer?: Float64Array,
+): { grid: StateGrid; failure: FailureReason | null; failedAt: number } | null {
+  const span = until - start;
+  if (!(span > 0)) return null;
+  const k = Math.max(1, Math.ceil((span - STEP_COUNT_SLACK_MS) / stepMs));
+  const h = span / k;
+  const g = buildStateGridPoints(traj, start, k + 1, h, buffer);
+  if (!('failure' in g)) return { grid: g, failure: null, failedAt: NaN };
+  // The points before the failing one were computed: the grid keeps them.
+  const count = Math.round((g.at - start) / h);
+  if (count < 2) return null;
+  const kept = buildStateGridPoints(traj, start, count, h, buffer);
+  return 'failure' in kept ? null : { grid: kept, failure: g.failure, failedAt: g.at };
+}
+
+/**
+ * A span longer than a whole number of steps by less than this (ms) counts as that number: instants
+ * near 2026 in ms carry rounding of 2.4e-4 ms (one ulp of 1.8e12), so a decay exactly k steps
+ * after the start can come out a hair longer. The step then exceeds the asked one by < 1 µs.
+ */
+const STEP_COUNT_SLACK_MS = 1e-3;
+
+/** Instant of a grid's last point. */
+export const gridEnd = (g: StateGrid): number => g.start + (g.count - 1) * g.stepMs;
 
 export const gridPointCount = (start: number, end: number, stepMs: number): number =>
   Math.ceil((end - start) / stepMs) + 1;

@@ -4,6 +4,7 @@ import { brentRoot, goldenMin } from '../math/brent.js';
 import { approachAngleDeg, relativeRtn, volumeBoundKm, volumeMetric } from './geometry.js';
 import type { ScreeningVolume } from './types.js';
 import type { Encounter, StateArray } from '../events/index.js';
+import { norm3 } from '../math/norm.js';
 
 /** TCA accuracy: the range-rate root is solved to 1 µs (requirement: 1 ms). */
 const TCA_TOL_S = 1e-6;
@@ -79,7 +80,7 @@ class PairEvaluator {
 
   distance(t: number): number {
     const b = this.at(t);
-    return Math.hypot(b[6]! - b[0]!, b[7]! - b[1]!, b[8]! - b[2]!);
+    return norm3(b[6]! - b[0]!, b[7]! - b[1]!, b[8]! - b[2]!);
   }
 
   metric(t: number): number {
@@ -122,9 +123,9 @@ export function findEncounters(ctx: PairContext, a: number, b: number, stepMs: n
     const s = ev.at(tca);
     const p6 = Array.from(s.subarray(0, 6)) as unknown as StateArray;
     const s6 = Array.from(s.subarray(6, 12)) as unknown as StateArray;
-    const miss = Math.hypot(s6[0] - p6[0], s6[1] - p6[1], s6[2] - p6[2]);
+    const miss = norm3(s6[0] - p6[0], s6[1] - p6[1], s6[2] - p6[2]);
     if (miss > bound) return;
-    const vrel = Math.hypot(s6[3] - p6[3], s6[4] - p6[4], s6[5] - p6[5]);
+    const vrel = norm3(s6[3] - p6[3], s6[4] - p6[4], s6[5] - p6[5]);
     // Time scale of the pass: how long the relative motion takes to cross the volume.
     const crossS = Math.min(3600, (2 * bound) / Math.max(vrel, 1e-6));
     let inside: number;

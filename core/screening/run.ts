@@ -1,6 +1,7 @@
 import { wrap, releaseProxy, type Remote } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { availableParallelism } from 'node:os';
+import type { Worker } from 'node:worker_threads';
 import type { ElementSet } from '../elements/elementSet.js';
 import { KeepclearError } from '../errors.js';
 import { startWorkers } from '../workers/entry.js';
@@ -143,6 +144,38 @@ export async function runScreening(
   }
 }
 
+/**
+ * Worker threads started ahead of the run (prestartScreeningWorkers): they load their modules
+ * while the caller still reads the catalogue. Unreferenced until a run takes them, so a process
+ * that never screens is not kept alive by them.
+ */
+let prestarted: { n: number; workers: Promise<Worker[]> } | null = null;
+
+/**
+ * Starts the pair-by-pair screening workers now, for the next runScreening in this process with
+ * the same worker count (a command line that is about to screen). No effect for 0 workers.
+ */
+export function prestartScreeningWorkers(n: number = availableParallelism()): void {
+  if (!(n > 0) || prestarted) return;
+  const workers = startWorkers('./worker.ts', import.meta.url, n).then((ws) => {
+    for (const w of ws) w.unref();
+    return ws;
+  });
+  workers.catch(() => undefined); // a failure shows when a run takes them
+  prestarted = { n, workers };
+}
+
+async function takeWorkers(n: number): Promise<Worker[]> {
+  if (prestarted && prestarted.n === n) {
+    const { workers } = prestarted;
+    prestarted = null;
+    const ws = await workers;
+    for (const w of ws) w.ref();
+    return ws;
+  }
+  return startWorkers('./worker.ts', import.meta.url, n);
+}
+
 async function inWorkers(
   n: number,
   elementSets: readonly ElementSet[],
@@ -154,7 +187,7 @@ async function inWorkers(
   layout: { id: string; offset: number; count: number; stepMs: number }[],
   gridBuffer: SharedArrayBuffer,
 ): Promise<ChunkResult[]> {
-  const workers = await startWorkers('./worker.ts', import.meta.url, n);
+  const workers = await takeWorkers(n);
   const apis: Remote<ScreeningWorkerApi>[] = workers.map((w) => wrap<ScreeningWorkerApi>(nodeEndpoint(w)));
   try {
     const packed = packSets(elementSets);

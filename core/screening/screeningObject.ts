@@ -6,6 +6,7 @@ import { SampledTrajectory, type SampleTable } from '../propagation/sampledTraje
 import { gridStepMs } from './primaryGrid.js';
 import { MU_EARTH_WGS72 } from '../units.js';
 import type { ScreeningVolume } from './types.js';
+import { norm3 } from '../math/norm.js';
 
 /** One object taking part in a screening, whatever its trajectory source. */
 export interface ScreeningObject {
@@ -56,7 +57,7 @@ export function objectFromSamples(table: SampleTable, epoch: Instant): Screening
 
 /** Osculating mean motion (rev/day) and eccentricity of a TEME state. */
 function osculatingMeanMotion(s: ArrayLike<number>): { revPerDay: number; e: number } | null {
-  const r = Math.hypot(s[0]!, s[1]!, s[2]!);
+  const r = norm3(s[0]!, s[1]!, s[2]!);
   const v2 = s[3]! ** 2 + s[4]! ** 2 + s[5]! ** 2;
   const energy = v2 / 2 - MU_EARTH_WGS72 / r;
   if (!(energy < 0)) return null;

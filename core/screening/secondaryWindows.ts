@@ -1,6 +1,7 @@
 import type { Instant } from '../time/instant.js';
 import type { OrbitModel } from './orbitModel.js';
 import { pushRegion, type Regions } from './regions.js';
+import { norm2 } from '../math/norm.js';
 
 /**
  * Time windows in which the secondary's model position can be within `thrKm` of the primary's
@@ -107,6 +108,9 @@ export function primaryBlockNormals(p: OrbitModel, start: number, end: number): 
   return out;
 }
 
+/** Eccentricity below which ν ↔ M use their series (remainder ≤ ~e³, see meanFromTrue). */
+const SERIES_MAX_E = 0.01;
+
 // Scratch buffers (single-threaded per worker; no allocation per call).
 const ME0 = new Float64Array(7);
 
@@ -118,7 +122,7 @@ const TWO_PI = 2 * Math.PI;
  * rad for e < 0.01: ≪ 1 ms in time, inside TIME_PAD_MS.
  */
 function meanFromTrue(nu: number, e: number): number {
-  if (e < 0.01) return nu - 2 * e * Math.sin(nu) + 0.75 * e * e * Math.sin(2 * nu);
+  if (e < SERIES_MAX_E) return nu - 2 * e * Math.sin(nu) + 0.75 * e * e * Math.sin(2 * nu);
   const k = Math.floor((nu + Math.PI) / TWO_PI);
   const v = nu - k * TWO_PI;
   const E = 2 * Math.atan(Math.sqrt((1 - e) / (1 + e)) * Math.tan(v / 2));
@@ -171,7 +175,7 @@ export function secondaryPlaneWindows(
     const x = nrm[n]! * cO + nrm[n + 1]! * sO;
     const y = -nrm[n]! * sO * ci + nrm[n + 1]! * cO * ci + nrm[n + 2]! * si;
     gTheta = Math.atan2(y, x);
-    gA = Math.hypot(x, y);
+    gA = norm2(x, y);
   };
   geom(0);
   let th0 = gTheta, A0 = gA;
@@ -202,9 +206,24 @@ export function secondaryPlaneWindows(
       const uLo = wLo + bnd[o0 + 7]! - CURVE_PAD_RAD, uHi = wHi + bnd[o1 + 7]! + CURVE_PAD_RAD;
       const kFirst = Math.ceil((uLo - beta - thHi - Math.PI / 2) / Math.PI);
       const kLast = Math.floor((uHi + beta - thLo - Math.PI / 2) / Math.PI);
+      // Near-circular: the series' sines at ν + jπ are ±sin ν and sin 2ν, so one pair of sines
+      // per block serves every window of it.
+      const series = e < SERIES_MAX_E;
+      const nuA0 = thLo + Math.PI / 2 + kFirst * Math.PI - beta - wHi, nuB0 = thHi + Math.PI / 2 + kFirst * Math.PI + beta - wLo;
+      const sA = series ? Math.sin(nuA0) : 0, s2A = series ? Math.sin(2 * nuA0) : 0;
+      const sB = series ? Math.sin(nuB0) : 0, s2B = series ? Math.sin(2 * nuB0) : 0;
       for (let k = kFirst; k <= kLast; k++) {
         const u1 = thLo + Math.PI / 2 + k * Math.PI - beta, u2 = thHi + Math.PI / 2 + k * Math.PI + beta;
-        const Ma = meanFromTrue(u1 - wHi, e), Mb = meanFromTrue(u2 - wLo, e);
+        let Ma: number, Mb: number;
+        if (series) {
+          const sign = (k - kFirst) % 2 === 0 ? 1 : -1;
+          const nuA = u1 - wHi, nuB = u2 - wLo;
+          Ma = nuA - 2 * e * sign * sA + 0.75 * e * e * s2A;
+          Mb = nuB - 2 * e * sign * sB + 0.75 * e * e * s2B;
+        } else {
+          Ma = meanFromTrue(u1 - wHi, e);
+          Mb = meanFromTrue(u2 - wLo, e);
+        }
         const ta = tc + (Ma - Mc) / Mdot, tb = tc + (Mb - Mc) / Mdot;
         pushRegion(out, Math.max(t0, ta) - TIME_PAD_MS, Math.min(t1, tb) + TIME_PAD_MS);
       }

@@ -12,6 +12,7 @@
 import type { Instant } from '../../time/instant.js';
 import type { Trajectory } from '../../propagation/trajectory.js';
 import { interpolationBoundKm, type SamplingPlan } from './sampling.js';
+import { norm3 } from '../../math/norm.js';
 
 export class BlockTracks {
   /** x y z vx vy vz per sample, objects one after another (offsets in `first`) */
@@ -69,7 +70,7 @@ export class BlockTracks {
           break;
         }
         const o = (base + m) * 6;
-        vMax = Math.max(vMax, Math.hypot(x[o + 3]!, x[o + 4]!, x[o + 5]!));
+        vMax = Math.max(vMax, norm3(x[o + 3]!, x[o + 4]!, x[o + 5]!));
       }
       this.sgp4Evaluations += count;
       if (!good) continue;

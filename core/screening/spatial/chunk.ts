@@ -3,8 +3,10 @@
  *  1. `broad`: the spatial index over the blocks of time it is given (broadPhase.ts);
  *  2. `refine`: exact refinement (refine.ts) of the candidate pairs it is given, each over its
  *     candidate regions padded by one refinement step, exactly as the pair-by-pair engine does;
- *  3. `screenShortLived`: objects that stop propagating inside the window (decay) are screened
- *     by the pair-by-pair engine against every object, up to their decay.
+ *  3. `screenPairwise`: objects that stop propagating inside the window (decay; found by the
+ *     validity probe, or by the index's sampling when the probe missed it) are screened by the
+ *     pair-by-pair engine against every object, up to their first failure (their exact grid
+ *     ends there: ScreeningSession.grid).
  * Objects whose propagation fails at the window start are flagged and left out.
  */
 import type { ElementSet } from '../../elements/elementSet.js';
@@ -15,8 +17,6 @@ import { findEncounters, PropagationError } from '../refine.js';
 import { volumeBoundKm } from '../geometry.js';
 import { CTRL_CANCEL, CTRL_DONE, type ChunkResult } from '../chunk.js';
 import { BlockTracks } from './blockTracks.js';
-import { buildStateGrid, gridStepMs, type StateGrid } from '../primaryGrid.js';
-import type { Instant } from '../../time/instant.js';
 import { broadPhase, type BroadPhaseStats } from './broadPhase.js';
 import { CandidateList, type Candidates, type PairRegions } from './candidates.js';
 import { SortedCells } from './sortedCells.js';
@@ -153,7 +153,7 @@ export class AllVsAllChunk {
       if (this.cancelled()) return this.result(out, true);
       this.extra.shortLived++;
       const p = this.objects[x]!;
-      const g = this.gridUntilDecay(p);
+      const g = this.session.grid(p);
       if (!g) continue;
       for (let y = 0; y < this.objects.length; y++) {
         if (y === x || this.role[y] === 2) continue;
@@ -164,30 +164,6 @@ export class AllVsAllChunk {
       }
     }
     return this.result(out, false);
-  }
-
-  /**
-   * Exact grid of an object up to its last grid point before it stops propagating (the engine's
-   * grid would reach one step past the decay and fail there). The last part of a grid step
-   * before the decay (< 1 min in LEO) is covered by the grid's end interval, extrapolated.
-   */
-  private gridUntilDecay(p: ScreeningObject): StateGrid | null {
-    const until = this.session.validUntil(p);
-    if (until === null) return null;
-    const { start, end } = this.settings;
-    const step = p.gridStepMs ?? gridStepMs(1440 / p.periodMin);
-    let last = start + Math.floor((Math.min(end, until) - start) / step) * step;
-    // SGP4's failure need not be monotonic in time (a "decayed" state can come before the last
-    // instant the bisection found valid): the grid then ends at its last point before the failure.
-    for (;;) {
-      if (last - start < step) return null;
-      const g = buildStateGrid(p.trajectory, start, last as Instant, step);
-      if (!('failure' in g)) return g;
-      this.session.flag(p.id, `propagation failed: ${g.failure} at ${new Date(g.at).toISOString()}`);
-      const next = start + (Math.round((g.at - start) / step) - 1) * step;
-      if (!(next < last)) return null;
-      last = next;
-    }
   }
 
   flaggedIds(): string[] {
