@@ -168,7 +168,6 @@ export default defineCommand<ScreenOptions>({
     // Loaded together: the module loader reads and compiles them concurrently.
     const [
       { openDatabase, defaultDbPath },
-      { importFiles },
       { screenAndStore },
       { eventToJson, runToJson },
       { seriesStatesOf },
@@ -182,7 +181,6 @@ export default defineCommand<ScreenOptions>({
       { describeEphemeris },
     ] = await Promise.all([
       import('../../db/index.js'),
-      import('../../app/import/index.js'),
       import('../../app/screen.js'),
       import('../../app/eventJson.js'),
       import('../../app/seriesJson.js'),
@@ -207,6 +205,8 @@ export default defineCommand<ScreenOptions>({
       if (o.catalog && o.catalog.length > 0) {
         // With --json - the counts go to stderr: stdout carries only JSON.
         const out = jsonOnly ? process.stderr : process.stdout;
+        // Loaded only when there is something to import: the readers (XML parser included) cost ~0.1 s.
+        const { importFiles } = await import('../../app/import/index.js');
         const summary = importFiles(db, { files: o.catalog, onFile: (f) => presentFileOutcome(f, out) });
         presentImportTotal(summary, out);
         if (!summary.clean) exit = 1;

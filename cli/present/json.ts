@@ -11,6 +11,9 @@ export function writeJsonWithCaution(target: string, doc: Record<string, unknown
   else writeFileSync(target, text);
 }
 
+/** What JSON.stringify({ e: [item] }, null, 2) puts around the item's text. */
+const ITEM_OPEN = '{\n  "e": [\n';
+const ITEM_CLOSE = '\n  ]\n}';
 /** Bytes gathered before each write of a streamed document. */
 const STREAM_CHUNK_CHARS = 1 << 20;
 
@@ -38,10 +41,10 @@ export function writeJsonListWithCaution<T>(
     let buf = `${opening.slice(0, -2)},\n  ${JSON.stringify(listKey)}: [`;
     if (items.length === 0) buf += ']';
     for (let n = 0; n < items.length; n++) {
-      // An item at depth 2 is its own indented text with every line moved in by 4 spaces
-      // (string values hold newlines only escaped, so every raw newline is structure).
-      const text = JSON.stringify(toJson(items[n]!), null, 2) ?? 'null';
-      buf += `${n === 0 ? '' : ','}\n    ${text.replace(/\n/g, '\n    ')}`;
+      // An item at depth 2, indented by JSON.stringify itself: the only element of a list in a
+      // one-key object, cut out of "{\n  "e": [\n" … "\n  ]\n}".
+      const text = JSON.stringify({ e: [toJson(items[n]!)] }, null, 2);
+      buf += `${n === 0 ? '' : ','}\n${text.slice(ITEM_OPEN.length, text.length - ITEM_CLOSE.length)}`;
       if (buf.length >= STREAM_CHUNK_CHARS) {
         writeSync(fd, buf);
         buf = '';

@@ -83,6 +83,12 @@ const periodMinutes = (aKm: number): number => (2 * Math.PI * Math.sqrt((aKm * a
 /** SGP4 state and mean elements of the current sample (scratch: workers are single-threaded). */
 const PV = new Float64Array(6);
 const ME = new Float64Array(7);
+/** SGP4 positions and velocities at the nodes, and the model's state (scratch, grown as needed). */
+let NODE_POS = new Float64Array(64 * 3);
+let NODE_VEL = new Float64Array(64 * 3);
+const MODEL_STATE = new Float64Array(6);
+/** Interpolation weights of the model being evaluated (scratch: evaluation is not reentrant). */
+const WEIGHTS = new Float64Array(4);
 
 export function buildSgp4Model(
   satrec: SatRec,
@@ -97,8 +103,11 @@ export function buildSgp4Model(
   const nNodes = nIntervals + 1;
   const t0Min = (start - epoch) / MS_PER_MIN; // minutes since epoch of node 0
   const el = new Float64Array(nNodes * N_EL);
-  const pos = new Float64Array(nNodes * 3);
-  const vel = new Float64Array(nNodes * 3);
+  if (NODE_POS.length < nNodes * 3) {
+    NODE_POS = new Float64Array(nNodes * 3);
+    NODE_VEL = new Float64Array(nNodes * 3);
+  }
+  const pos = NODE_POS, vel = NODE_VEL;
   let vMax = 0;
   for (let k = 0; k < nNodes; k++) {
     const code = sgp4Into(satrec, t0Min + k * stepMin, PV, 0, ME);
@@ -128,7 +137,7 @@ export function buildSgp4Model(
   }
   const model = new KeplerModel(start, stepMin * MS_PER_MIN, nNodes, el);
   // Measure |model − SGP4| at nodes and mid-nodes.
-  const buf = new Float64Array(6);
+  const buf = MODEL_STATE;
   let err = 0, verr = 0;
   for (let k = 0; k < nNodes; k++) {
     model.stateInto((start + k * stepMin * MS_PER_MIN) as Instant, buf, 0);
@@ -205,7 +214,7 @@ class KeplerModel implements OrbitModel {
   vMaxKmS = Infinity;
   velocityErrKmS = Infinity;
   private readonly el: Float64Array;
-  private readonly w = new Float64Array(4);
+  private readonly w = WEIGHTS;
 
   constructor(
     private readonly start: number,
