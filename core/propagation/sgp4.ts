@@ -57,7 +57,8 @@ function referenceDayOfYear(epoch: Instant, year: number): number {
  * sgp4init is built the same way as the reference (satellite.js's own days2mdhms and jday,
  * as its twoline2satrec does); every verification set then matches within 0.2 mm
  * (test/sgp4-verification.test.ts). Physically the difference is tens of microseconds.
- * sgp4init and days2mdhms are not in the package's export map, so they are reached by file
+ * The initialisation itself is sgp4InitKernel.ts (a port of sgp4init; deep space: sgp4init).
+ * days2mdhms is not in the package's export map, so it is reached by file
  * path; opsmode 'i' and WGS-72 are the mode of the reference output.
  */
 export function makeSatrec(es: ElementSet): SatRec {

@@ -10,7 +10,7 @@
  * Only the plumbing differs: satellite.js builds a 36-field options object for dspace, a
  * parameter and a result object for dpper and three result objects per call, which made SGP4
  * plus garbage collection the largest cost of screening; here the locals stay locals and the
- * results go into typed arrays. Initialisation stays with satellite.js's sgp4init.
+ * results go into typed arrays. Initialisation: sgp4InitKernel.ts (near-Earth), satellite.js (deep space).
  *
  * satellite.js is distributed under the MIT License:
  *
