@@ -6,29 +6,16 @@
  * on the published verification element sets (real objects: near-Earth, deep-space, high drag,
  * Molniya, GEO) and on every population of the synthetic catalogue.
  */
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { parseTle } from '../core/formats/tle/index.js';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import { coarseRadiusBand, objectFromElements } from '../core/screening/engine.js';
 import { generateCatalog } from '../core/synthetic/catalog.js';
 import type { Instant } from '../core/time/instant.js';
+import { verificationSets } from './support/verificationSets.js';
 
 const WEEK_MS = 7 * 86_400_000;
 const MINUTE_MS = 60_000;
-
-/** The verification set's element sets, three checksum digits repaired (see sgp4-verification.test.ts). */
-function verificationSets(): ElementSet[] {
-  const text = readFileSync(new URL('./authorities/sgp4-verification/SGP4-VER.TLE', import.meta.url), 'utf8');
-  const lines = text.split(/\r?\n/).filter((l) => /^[12] /.test(l)).map((l) => {
-    const body = l.slice(0, 68);
-    let sum = 0;
-    for (const c of body) sum += c === '-' ? 1 : /\d/.test(c) ? Number(c) : 0;
-    return body + String(sum % 10);
-  });
-  return parseTle(lines.join('\n'), 'SGP4-VER.TLE').sets;
-}
 
 /** Radii outside the band over [start, start + a week), sampled every minute (SGP4 failures end the object). */
 function outside(sets: readonly ElementSet[], startOf: (es: ElementSet) => number): { banded: number; bad: string[] } {

@@ -12,18 +12,17 @@
  * Checked by hand once (2026-12-03): multiplying the kernel's cc5 by (1 + 1e-15) makes both
  * tests fail with field mismatches.
  */
-import { readFileSync } from 'node:fs';
 import type { SatRec } from 'satellite.js';
 import type { SatRecInit } from '../node_modules/satellite.js/dist/propagation/SatRec.js';
 import { sgp4init } from '../node_modules/satellite.js/dist/propagation/sgp4init.js';
 import { describe, expect, it } from 'vitest';
 import type { ElementSet } from '../core/elements/elementSet.js';
-import { parseTle } from '../core/formats/tle/index.js';
 import { makeSatrec } from '../core/propagation/sgp4.js';
 import { Sgp4Record } from '../core/propagation/sgp4InitKernel.js';
 import { sgp4Into } from '../core/propagation/sgp4Kernel.js';
 import { generateCatalog } from '../core/synthetic/catalog.js';
 import type { Instant } from '../core/time/instant.js';
+import { verificationRecords, verificationSet } from './support/verificationSets.js';
 
 const EPOCH = Date.UTC(2026, 2, 1, 0, 0, 0) as Instant;
 const JD_1950 = 2433281.5;
@@ -98,15 +97,11 @@ describe('near-Earth sgp4init kernel against satellite.js sgp4init', () => {
   });
 
   it('the 33 verification sets (SGP4-VER.TLE): same record fields, same states', () => {
-    const lines = readFileSync(new URL('./authorities/sgp4-verification/SGP4-VER.TLE', import.meta.url), 'utf8')
-      .split(/\r?\n/)
-      .filter((l) => l.trim() !== '' && !l.startsWith('#'));
     const tally: Tally = { near: 0, deep: 0, states: 0, mismatches: [] };
-    for (let i = 0; i < lines.length; i += 2) {
-      const line1 = lines[i]!, line2 = lines[i + 1]!;
-      const [start, stop, step] = line2.slice(69).trim().split(/\s+/).map(Number) as [number, number, number];
-      const es = parseTle(`${withChecksum(line1)}\n${withChecksum(line2.slice(0, 69))}`, 'SGP4-VER.TLE').sets[0];
-      expect(es, line1).toBeDefined();
+    for (const rec of verificationRecords()) {
+      const { start, stop, step } = rec;
+      const es = verificationSet(rec);
+      expect(es, rec.line1).toBeDefined();
       const times: number[] = [];
       for (let t = start; t <= stop + 1e-9; t += step) times.push(t);
       times.push(stop * 2 + 7, -stop - 13);
@@ -119,10 +114,3 @@ describe('near-Earth sgp4init kernel against satellite.js sgp4init', () => {
     expect(tally.mismatches.slice(0, 10)).toEqual([]);
   });
 });
-
-/** TLE checksum repaired (digits summed, '-' counts 1, modulo 10), as sgp4-verification.test.ts. */
-function withChecksum(line: string): string {
-  let sum = 0;
-  for (const c of line.slice(0, 68)) sum += c === '-' ? 1 : /\d/.test(c) ? Number(c) : 0;
-  return line.slice(0, 68) + String(sum % 10);
-}

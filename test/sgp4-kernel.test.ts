@@ -19,16 +19,15 @@
  * That the kernel path still meets Vallado's published vectors within 1 mm is
  * test/sgp4-verification.test.ts, which runs through Sgp4Trajectory and so through the kernel.
  */
-import { readFileSync } from 'node:fs';
 import { sgp4, type SatRec } from 'satellite.js';
 import { describe, expect, it } from 'vitest';
 import type { ElementSet } from '../core/elements/elementSet.js';
-import { parseTle } from '../core/formats/tle/index.js';
 import { makeSatrec } from '../core/propagation/sgp4.js';
 import { MEAN_ELEMENT_COUNT, sgp4Into } from '../core/propagation/sgp4Kernel.js';
 import { generateCatalog } from '../core/synthetic/catalog.js';
 import { Rng } from '../core/synthetic/random.js';
 import type { Instant } from '../core/time/instant.js';
+import { verificationRecords, verificationSet } from './support/verificationSets.js';
 
 /** km: required by the brief; a port of the same arithmetic should agree to the last bit. */
 const POS_TOL_KM = 1e-9;
@@ -179,21 +178,14 @@ describe('SGP4 kernel against satellite.js sgp4', () => {
   });
 
   it('the 33 verification sets (SGP4-VER.TLE) at their reference steps, scrambled, and their error instants', () => {
-    const dir = new URL('./authorities/sgp4-verification/', import.meta.url);
-    const lines = readFileSync(new URL('SGP4-VER.TLE', dir), 'utf8')
-      .split(/\r?\n/)
-      .filter((l) => l.trim() !== '' && !l.startsWith('#'));
     const rng = new Rng(23);
     const tally = newTally();
     let sets = 0;
-    for (let i = 0; i < lines.length; i += 2) {
-      const line1 = lines[i]!, line2 = lines[i + 1]!;
-      // Start, stop and step follow column 69 of line 2 (see sgp4-verification.test.ts).
-      const [start, stop, step] = line2.slice(69).trim().split(/\s+/).map(Number) as [number, number, number];
-      // Three sets carry deliberately wrong checksums: only that digit is repaired, as in
-      // sgp4-verification.test.ts (a no-op for the others).
-      const es = parseTle(`${withChecksum(line1)}\n${withChecksum(line2.slice(0, 69))}`, 'SGP4-VER.TLE').sets[0];
-      expect(es, line1).toBeDefined();
+    for (const rec of verificationRecords()) {
+      const { start, stop, step } = rec;
+      // Three sets carry deliberately wrong checksums: only that digit is repaired (withChecksum).
+      const es = verificationSet(rec);
+      expect(es, rec.line1).toBeDefined();
       const times: number[] = [];
       for (let t = start; t <= stop + 1e-9; t += step) times.push(t);
       // Beyond the stop time too, so sets that fail later are caught failing at the same instant.
@@ -208,10 +200,3 @@ describe('SGP4 kernel against satellite.js sgp4', () => {
     for (const code of [1, 3, 4, 6]) expect(tally.codes.get(code) ?? 0, `code ${code}`).toBeGreaterThan(0);
   });
 });
-
-/** TLE checksum repaired (digits summed, '-' counts 1, modulo 10), as sgp4-verification.test.ts. */
-function withChecksum(line: string): string {
-  let sum = 0;
-  for (const c of line.slice(0, 68)) sum += c === '-' ? 1 : /\d/.test(c) ? Number(c) : 0;
-  return line.slice(0, 68) + String(sum % 10);
-}

@@ -14,6 +14,7 @@ import { parseTle } from '../core/formats/tle/index.js';
 import { reasonForSgp4Code, Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import type { Instant } from '../core/time/instant.js';
+import { verificationRecords, withChecksum } from './support/verificationSets.js';
 
 const DIR = new URL('./authorities/sgp4-verification/', import.meta.url);
 const read = (name: string): string => readFileSync(new URL(name, DIR), 'utf8');
@@ -22,26 +23,6 @@ const read = (name: string): string => readFileSync(new URL(name, DIR), 'utf8');
 // and 9 decimals of km/s, so 1 mm leaves room only for arithmetic-order differences.
 const POS_TOL_KM = 1e-6; // km: 1 mm
 const VEL_TOL_KMS = 1e-6; // km/s: 1 mm/s
-
-interface Record {
-  line1: string;
-  line2: string;
-  start: number;
-  stop: number;
-  step: number;
-}
-
-/** Element sets in file order, with the start/stop/step the verification file adds after col 69. */
-function readRecords(): Record[] {
-  const lines = read('SGP4-VER.TLE').split(/\r?\n/).filter((l) => l.trim() !== '' && !l.startsWith('#'));
-  const out: Record[] = [];
-  for (let i = 0; i < lines.length; i += 2) {
-    const line1 = lines[i]!, line2 = lines[i + 1]!;
-    const [start, stop, step] = line2.slice(69).trim().split(/\s+/).map(Number);
-    out.push({ line1, line2: line2.slice(0, 69), start: start!, stop: stop!, step: step! });
-  }
-  return out;
-}
 
 /** tcppver.out blocks in file order: header "<satnum> xx", then rows of t, r(3), v(3). */
 function readReference(): { satnum: string; rows: number[][] }[] {
@@ -55,18 +36,6 @@ function readReference(): { satnum: string; rows: number[][] }[] {
   return blocks;
 }
 
-/**
- * TLE checksum by the format's definition (digits summed, '-' counts 1, modulo 10). Three
- * verification sets (33333, 33334, 33335) carry deliberately wrong line-1 checksums — python-sgp4's
- * tests.py lists them as "Checksum error as expected". Only that digit is repaired so the
- * parser's checksum check lets them through; no element changes.
- */
-function withChecksum(line: string): string {
-  let sum = 0;
-  for (const c of line.slice(0, 68)) sum += c === '-' ? 1 : /\d/.test(c) ? Number(c) : 0;
-  return line.slice(0, 68) + String(sum % 10);
-}
-
 interface ErrorFixture {
   sets: { satnum: number; stopsAt: number | null; error: number; lastGood: number | null }[];
   initCases: {
@@ -75,7 +44,7 @@ interface ErrorFixture {
   }[];
 }
 
-const records = readRecords();
+const records = verificationRecords();
 const reference = readReference();
 const fixture = JSON.parse(read('error_codes.json')) as ErrorFixture;
 const repaired = records.filter((r) => withChecksum(r.line1) !== r.line1).map((r) => r.line1.slice(2, 7));
