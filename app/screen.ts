@@ -85,10 +85,15 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
   // The screening starts first and the run row is written while the workers work: the main
   // thread would otherwise spend the fingerprint's time (~0.1 s for 30,000 sets) before any
   // worker starts. The fingerprint is of the sets already loaded (no second catalogue read).
+  // The caller's cancel, and ours should the run row not be written.
+  const stop = new AbortController();
+  const forward = (): void => stop.abort();
+  if (req.signal?.aborted) stop.abort();
+  req.signal?.addEventListener('abort', forward);
   const screening = runScreening(sets, req.settings, {
     ...(req.workers !== undefined ? { workers: req.workers } : {}),
     ...(req.onProgress ? { onProgress: req.onProgress } : {}),
-    ...(req.signal ? { signal: req.signal } : {}),
+    signal: stop.signal,
     ...(choice.used.size > 0
       ? {
           // The data behind an ephemeris is as old as its CREATION_DATE: that is the primary's epoch.
@@ -103,8 +108,10 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
   try {
     runId = createRun(db, req.settings, fingerprintOfSets(sets), sets.length);
   } catch (err) {
-    // Nothing stored: let the workers finish, drop what they found.
+    // Nothing stored: stop the workers and drop what they found.
+    stop.abort();
     await screening.catch(() => undefined);
+    req.signal?.removeEventListener('abort', forward);
     throw err;
   }
   let outcome;
@@ -113,6 +120,8 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
   } catch (err) {
     finishRun(db, runId, { status: 'failed', wallMs: 0, flagged: [], events: [] });
     throw err;
+  } finally {
+    req.signal?.removeEventListener('abort', forward);
   }
   // Covariance precedence: the object's element-set history, then the default table; a received
   // message of the same series comes first and is applied while linking (app/series.ts), since
