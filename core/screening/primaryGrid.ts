@@ -29,25 +29,27 @@ export class StateGrid {
 
   /** Upper bound of |r| over the grid (km), computed once. */
   maxRadiusKm(): number {
-    if (this.rMax < 0) {
-      let m = 0;
-      const x = this.states;
-      for (let j = 0; j < this.count; j++) m = Math.max(m, norm3(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
-      // Between grid points |r| can exceed the samples by at most v²h²/(8r) ≪ 1 km; pad 1 km.
-      this.rMax = m + 1;
-    }
+    if (this.rMax < 0) this.radiusBounds();
     return this.rMax;
   }
 
-  /** Lower bound of |r| over the grid (km), computed once (same 1-km pad as maxRadiusKm). */
+  /** Lower bound of |r| over the grid (km), computed once. */
   minRadiusKm(): number {
-    if (this.rMin < 0) {
-      let m = Infinity;
-      const x = this.states;
-      for (let j = 0; j < this.count; j++) m = Math.min(m, norm3(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!));
-      this.rMin = Math.max(0, m - 1);
-    }
+    if (this.rMin < 0) this.radiusBounds();
     return this.rMin;
+  }
+
+  private radiusBounds(): void {
+    let lo = Infinity, hi = 0;
+    const x = this.states;
+    for (let j = 0; j < this.count; j++) {
+      const r = norm3(x[j * 6]!, x[j * 6 + 1]!, x[j * 6 + 2]!);
+      if (r < lo) lo = r;
+      if (r > hi) hi = r;
+    }
+    // Between grid points |r| leaves the samples' range by at most v²h²/(8r) ≪ 1 km; pad 1 km.
+    this.rMax = hi + 1;
+    this.rMin = Math.max(0, lo - 1);
   }
 
   timeAt(j: number): number {
