@@ -136,7 +136,8 @@ export function candidateRegions(
  * accelerations: central gravity changes by at most 2μ/z³ per km of separation (the tidal
  * tensor's largest eigenvalue, z the smallest radius on the segment between them, for a
  * separation up to ρmax over the step), plus what SGP4 adds to central gravity for each object
- * (measured ≤ 2.6e-5 km/s² over the synthetic catalogue; MAX_EXTRA_ACCEL_KMS2 is ~40× that).
+ * (MAX_EXTRA_ACCEL_KMS2: measured ≤ 2.6e-5 km/s² over the synthetic catalogue and ≤ ~2.7e-4 on the
+ * published verification sets, 23333 near perigee; test/screening-closing-step.test.ts).
  * Capped at CLOSING_STEP_CAP_S, for which ρmax is sized; 0 when the bound does not apply.
  */
 function closingStepS(slack: number, v0: number, sepUpper: number, lRate: number, rLowKm: number): number {
@@ -152,7 +153,7 @@ function closingStepS(slack: number, v0: number, sepUpper: number, lRate: number
 /** Longest step of the relative-speed bound (s): limits the separation growth it must allow for. */
 const CLOSING_STEP_CAP_S = 120;
 /** Bound of SGP4's acceleration beyond central gravity, per object (km/s²): see closingStepS. */
-const MAX_EXTRA_ACCEL_KMS2 = 1e-3;
+export const MAX_EXTRA_ACCEL_KMS2 = 1e-3;
 /** Bound of |dr/dt − grid velocity| for the primary (km/s): Hermite derivative error (≤ 1e-5) and SGP4's velocity gap (≤ 2e-3). */
 const GRID_DV_KMS = 0.01;
 /** WGS-72 μ (km³/s²), as the models use. */
