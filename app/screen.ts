@@ -7,13 +7,14 @@ import {
   fingerprintOfSets,
   createRun,
   finishRun,
-  eventsOfRun,
+  getEvent,
   getRun,
   inTransaction,
   latestElementSets,
   setRunDataAt,
   recordRunEphemeris,
   runEphemerides,
+  seriesIdsOfRun,
   type KeepclearDb,
   type RunEphemeris,
   type RunRecord,
@@ -129,18 +130,34 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
   // An ephemeris's covariance block, when it has one, is that primary's covariance (app/risk.ts).
   const risk = new RiskContext(db, new Map([...choice.used].map(([id, u]) => [id, u.trajectory])));
   phase('screening');
-  const linked = await assessAndStore(db, runId, outcome, risk, req, choice.used, phase);
-  // Stored: let the ~10⁵ encounters of an all-vs-all run go before the events are read back.
+  const { linked, stored } = await assessAndStore(db, runId, outcome, risk, req, choice.used, phase);
+  // Stored: the ~10⁵ encounters of an all-vs-all run can go.
   outcome.encounters.length = 0;
   const result = {
     run: getRun(db, runId)!,
-    events: eventsOfRun(db, runId),
+    events: asLinked(db, runId, stored, linked),
     linked,
     ephemerides: runEphemerides(db, runId),
     notes: choice.notes,
   };
   phase('read back');
   return result;
+}
+
+/**
+ * The run's events as eventsOfRun reads them back, without reading them back: the events as
+ * stored (same order: TCA, then sequence) with the series id linking gave each, and the few
+ * whose risk linking changed (a received message's covariance) read again. Reading 10⁵ rows
+ * back took seconds and held a second copy of every event.
+ */
+function asLinked(db: KeepclearDb, runId: string, stored: readonly ConjunctionEvent[], linked: LinkOutcome): ConjunctionEvent[] {
+  const seriesIds = seriesIdsOfRun(db, runId);
+  const reassessed = new Set(linked.reassessed);
+  return stored.map((e) => {
+    if (reassessed.has(e.id)) return getEvent(db, e.id)!;
+    const seriesId = seriesIds.get(e.id);
+    return seriesId === undefined ? e : { ...e, seriesId };
+  });
 }
 
 /**
@@ -156,14 +173,15 @@ async function assessAndStore(
   req: ScreenRequest,
   used: ReadonlyMap<string, { readonly summary: EphemerisSummary }>,
   phase: (name: string) => void,
-): Promise<LinkOutcome> {
+): Promise<{ linked: LinkOutcome; stored: ConjunctionEvent[] }> {
   const risks = await risk.assessMany(outcome.encounters, req.workers);
   const events = outcome.encounters.map((e, n) => ({ ...e, risk: risks[n]! }));
   phase('risk');
+  let stored: ConjunctionEvent[] = [];
   const linked = inTransaction(db, () => {
     if (req.dataAt !== undefined) setRunDataAt(db, runId, req.dataAt);
     for (const u of used.values()) recordRunEphemeris(db, runId, u.summary);
-    finishRun(db, runId, {
+    stored = finishRun(db, runId, {
       status: outcome.cancelled ? 'cancelled' : 'done',
       wallMs: outcome.wallMs,
       flagged: outcome.flagged,
@@ -173,7 +191,7 @@ async function assessAndStore(
     return linkRun(db, runId);
   });
   phase('store and link');
-  return linked;
+  return { linked, stored };
 }
 
 export const daysAfter = (start: Instant, days: number): Instant => (start + days * 86_400_000) as Instant;

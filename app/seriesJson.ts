@@ -1,6 +1,6 @@
 import { SERIES_STATE_MEANING, type SeriesState, type TrendChange } from '../core/events/index.js';
 import { toIso } from '../core/time/instant.js';
-import { getEventExtra, getSeries, type KeepclearDb } from '../db/index.js';
+import { getEventExtra, seriesStates, type KeepclearDb } from '../db/index.js';
 import type { ConjunctionEvent } from '../core/events/index.js';
 import { eventToJson } from './eventJson.js';
 import type { SeriesView } from './series.js';
@@ -51,13 +51,7 @@ export function seriesToJson(db: KeepclearDb, view: SeriesView): Record<string, 
   };
 }
 
-/** The state of each event's series (for the `seriesState` field of event JSON). */
+/** The state of each event's series (for the `seriesState` field of event JSON), read in one statement. */
 export function seriesStatesOf(db: KeepclearDb, events: readonly ConjunctionEvent[]): Map<string, SeriesState> {
-  const out = new Map<string, SeriesState>();
-  for (const e of events) {
-    if (!e.seriesId || out.has(e.seriesId)) continue;
-    const s = getSeries(db, e.seriesId);
-    if (s) out.set(s.id, s.state);
-  }
-  return out;
+  return seriesStates(db, events.flatMap((e) => (e.seriesId ? [e.seriesId] : [])));
 }

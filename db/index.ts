@@ -77,6 +77,8 @@ export {
   listSeries,
   eventsOfSeries,
   seriesIdsOfEvents,
+  seriesIdsOfRun,
+  seriesStates,
   screeningCoverage,
   newestDataAt,
   seriesEventsOf,

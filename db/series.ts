@@ -212,6 +212,28 @@ export function seriesIdsOfEvents(db: KeepclearDb, eventIds: readonly string[]):
   return out;
 }
 
+/** The series id of each event of a run, by event id (events not linked are left out), in one read. */
+export function seriesIdsOfRun(db: KeepclearDb, runId: string): Map<string, string> {
+  const out = new Map<string, string>();
+  for (const r of db.stmt('SELECT id, series_id FROM events WHERE run_id = ? AND series_id IS NOT NULL').raw().iterate(runId) as IterableIterator<[string, string]>) {
+    out.set(r[0], r[1]);
+  }
+  return out;
+}
+
+/**
+ * The state of each of some series, by id (ids of no stored series are left out): one statement
+ * for any number of ids (an all-vs-all run's events belong to ~10⁵ series).
+ */
+export function seriesStates(db: KeepclearDb, ids: Iterable<string>): Map<string, SeriesState> {
+  const out = new Map<string, SeriesState>();
+  const list = [...new Set(ids)];
+  if (list.length === 0) return out;
+  const rows = db.stmt('SELECT id, state FROM series WHERE id IN (SELECT value FROM json_each(?))').raw().iterate(JSON.stringify(list));
+  for (const [id, state] of rows as IterableIterator<[string, SeriesState]>) out.set(id, state);
+  return out;
+}
+
 /**
  * What every finished screening run covered (window, primaries, objects left out), dated by its
  * data time: enough to tell whether a run should have seen a conjunction (seriesStatus).
