@@ -2,7 +2,7 @@ import type { Instant } from '../core/time/instant.js';
 import { KeepclearError } from '../core/errors.js';
 import { runScreening, type ScreeningOutcome } from '../core/screening/run.js';
 import type { ScreeningSettings } from '../core/screening/types.js';
-import type { ConjunctionEvent } from '../core/events/index.js';
+import { encounterWith, type ConjunctionEvent } from '../core/events/index.js';
 import {
   fingerprintOfSets,
   createRun,
@@ -156,7 +156,7 @@ function asLinked(db: KeepclearDb, runId: string, stored: readonly ConjunctionEv
   return stored.map((e) => {
     if (reassessed.has(e.id)) return getEvent(db, e.id)!;
     const seriesId = seriesIds.get(e.id);
-    return seriesId === undefined ? e : { ...e, seriesId };
+    return seriesId === undefined ? e : encounterWith(e, { id: e.id, runId: e.runId, risk: e.risk, seriesId });
   });
 }
 
@@ -175,7 +175,7 @@ async function assessAndStore(
   phase: (name: string) => void,
 ): Promise<{ linked: LinkOutcome; stored: ConjunctionEvent[] }> {
   const risks = await risk.assessMany(outcome.encounters, req.workers);
-  const events = outcome.encounters.map((e, n) => ({ ...e, risk: risks[n]! }));
+  const events = outcome.encounters.map((e, n) => encounterWith(e, { risk: risks[n]! }));
   phase('risk');
   let stored: ConjunctionEvent[] = [];
   const linked = inTransaction(db, () => {

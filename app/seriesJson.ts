@@ -41,13 +41,14 @@ export function seriesToJson(db: KeepclearDb, view: SeriesView): Record<string, 
       sincePrevious: changeJson(trend.sincePrevious),
       sinceFirst: changeJson(trend.sinceFirst),
     },
-    events: series.members.map((m, i) => ({
-      ...eventToJson(m.event),
-      source: m.source.kind,
-      dataAt: toIso(m.source.createdAt),
-      timeToTcaH: trend.points[i]!.timeToTcaH,
-      extra: getEventExtra(db, m.event.id) ?? {},
-    })),
+    events: series.members.map((m, i) =>
+      Object.assign(eventToJson(m.event), {
+        source: m.source.kind,
+        dataAt: toIso(m.source.createdAt),
+        timeToTcaH: trend.points[i]!.timeToTcaH,
+        extra: getEventExtra(db, m.event.id) ?? {},
+      }),
+    ),
   };
 }
 

@@ -13,7 +13,7 @@ import { parseIso, toIso, type Instant } from '../core/time/instant.js';
 import { runScreening } from '../core/screening/run.js';
 import { shardText, type ShardSpec } from '../core/screening/spatial/shard.js';
 import type { FlaggedObject, ScreeningSettings, ScreeningVolume } from '../core/screening/types.js';
-import type { ConjunctionEvent, Encounter, StateArray } from '../core/events/index.js';
+import { encounterWith, type ConjunctionEvent, type Encounter, type StateArray } from '../core/events/index.js';
 import {
   catalogFingerprint, createRun, eventsOfRun, finishRun, getRun, inTransaction, latestElementSets,
   type KeepclearDb, type RunRecord,
@@ -58,7 +58,9 @@ export async function screenShard(db: KeepclearDb, req: ShardRequest): Promise<S
   });
   const risk = new RiskContext(db);
   const runId = shardRunId(settings.shard);
-  const events: ConjunctionEvent[] = outcome.encounters.map((e, n) => ({ ...e, id: `${runId}-${n + 1}`, runId, risk: risk.assess(e), seriesId: null }));
+  const events: ConjunctionEvent[] = outcome.encounters.map((e, n) =>
+    encounterWith(e, { id: `${runId}-${n + 1}`, runId, risk: risk.assess(e), seriesId: null }),
+  );
   const v = settings.volume;
   const run = {
     id: runId,
@@ -93,14 +95,14 @@ export async function screenShard(db: KeepclearDb, req: ShardRequest): Promise<S
 
 /** An event of a shard: the JSON of `screen`, plus the times unrounded so `merge` loses nothing. */
 function shardEventJson(e: ConjunctionEvent): Record<string, unknown> {
-  return {
-    ...eventToJson(e),
+  // Added to the object eventToJson made, not spread into a new one (slow in V8: encounterWith).
+  return Object.assign(eventToJson(e), {
     tcaMs: e.tca,
     entryMs: e.entry,
     exitMs: e.exit,
     primaryEpochMs: e.primaryEpoch,
     secondaryEpochMs: e.secondaryEpoch,
-  };
+  });
 }
 
 /** One shard document as read from its file. */
@@ -234,7 +236,7 @@ export function mergeShards(db: KeepclearDb, files: readonly ShardFile[]): Merge
   const flagged = [...flaggedById].map(([id, reason]) => ({ id, reason })).sort((a, b) => a.id.localeCompare(b.id));
   // Risk again with this database (the same as the shards' if it is a copy of theirs).
   const risk = new RiskContext(db);
-  const events = encounters.map((e) => ({ ...e, risk: risk.assess(e) }));
+  const events = encounters.map((e) => encounterWith(e, { risk: risk.assess(e) }));
   const runId = createRun(db, first.settings, first.fingerprint, first.objects, 'merge');
   inTransaction(db, () => {
     // The run took as long as its slowest shard (they run side by side).

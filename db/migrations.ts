@@ -5,6 +5,7 @@ import { SCHEMA_V3_RUNS } from './schemaV3.js';
 import { SCHEMA_V4_SERIES } from './schemaV4.js';
 import { SCHEMA_V5_EPHEMERIDES } from './schemaV5.js';
 import { SCHEMA_V6_PLANS } from './schemaV6.js';
+import { SCHEMA_V7_EVENT_PAIRS } from './schemaV7.js';
 
 /** One schema step. `version` is the PRAGMA user_version the database has after it. */
 export interface Migration {
@@ -48,6 +49,11 @@ export const MIGRATIONS: readonly Migration[] = [
     version: 6,
     name: 'spacecraft mass and Isp per owner object; manoeuvre plans kept with their event',
     up: (db) => db.sqlite.exec(SCHEMA_V6_PLANS),
+  },
+  {
+    version: 7,
+    name: 'index of events by pair (linking reads every sighting of a pair)',
+    up: (db) => db.sqlite.exec(SCHEMA_V7_EVENT_PAIRS),
   },
 ];
 

@@ -75,11 +75,27 @@ const memberOf = (r: SightingRow): SeriesMember => ({
 const SIGHTING_SELECT = `SELECT e.*, r.kind AS run_kind, COALESCE(r.data_at, r.created_at) AS run_data_at
    FROM events e JOIN runs r ON r.id = e.run_id`;
 
-/** The stored sightings of one unordered pair (either order), in any order. */
+/**
+ * The columns of a sighting read for linking: all an event has but its risk detail (covariances,
+ * plane; ~400 bytes of JSON) and its extra JSON, which linking never looks at — it needs the
+ * pair, TCA, states and epochs (the series rule and a re-assessment), and whether there is a
+ * risk. Parsing them for the ~10⁵ sightings of an all-vs-all run cost seconds. The events of
+ * linking's members are never written back nor shown: a re-assessment computes a new risk.
+ */
+const LINK_COLUMNS = `e.id, e.run_id, e.seq, e.primary_id, e.secondary_id, e.tca_ms, e.miss_km, e.relative_speed_km_s,
+   e.rtn_r_km, e.rtn_t_km, e.rtn_n_km, e.approach_angle_deg, e.entry_ms, e.exit_ms,
+   e.p_x_km, e.p_y_km, e.p_z_km, e.p_vx_km_s, e.p_vy_km_s, e.p_vz_km_s,
+   e.s_x_km, e.s_y_km, e.s_z_km, e.s_vx_km_s, e.s_vy_km_s, e.s_vz_km_s,
+   e.primary_epoch_ms, e.secondary_epoch_ms,
+   e.pc, e.pc_method, e.covariance_source, e.hard_body_radius_m, e.tier, e.warnings_json,
+   NULL AS risk_detail_json, '{}' AS extra_json, e.series_id,
+   r.kind AS run_kind, COALESCE(r.data_at, r.created_at) AS run_data_at`;
+
+/** The stored sightings of one unordered pair (either order), in any order; for linking (LINK_COLUMNS: no risk detail). */
 export function sightingsOfPair(db: KeepclearDb, a: string, b: string): SeriesMember[] {
   const rows = db
     .stmt(
-      `${SIGHTING_SELECT}
+      `SELECT ${LINK_COLUMNS} FROM events e JOIN runs r ON r.id = e.run_id
         WHERE ((e.primary_id = @a AND e.secondary_id = @b) OR (e.primary_id = @b AND e.secondary_id = @a))
           AND r.kind IN ${LINKED_KINDS} AND r.status IN ${LINKED_STATUSES}`,
     )
@@ -99,10 +115,11 @@ export function sightingsOfRun(db: KeepclearDb, runId: string): SeriesMember[] {
  * The stored sightings of every pair a run has events of (either order; nothing when the run is
  * of a kind or status that is not linked), by pairKeyOf: what sightingsOfPair gives for each of
  * those pairs, read in one statement instead of one per pair (an all-vs-all run has ~10⁵ pairs).
+ * For linking: the events carry no risk detail (LINK_COLUMNS).
  */
 export function sightingsOfRunPairs(db: KeepclearDb, runId: string): Map<string, SeriesMember[]> {
   const part = (a: string, b: string) =>
-    `SELECT e.*, r.kind AS run_kind, COALESCE(r.data_at, r.created_at) AS run_data_at
+    `SELECT ${LINK_COLUMNS}
        FROM p JOIN events e ON e.primary_id = p.${a} AND e.secondary_id = p.${b} JOIN runs r ON r.id = e.run_id
       WHERE r.kind IN ${LINKED_KINDS} AND r.status IN ${LINKED_STATUSES}`;
   const rows = db

@@ -66,7 +66,7 @@ export function exportJson(db: KeepclearDb, sel: ExportSelection, now: Instant):
     caution: DECISION_AID_NOTE,
     export: { kind: sel.kind, id: sel.id, createdAt: toIso(now), events: sel.events.length },
     run: sel.run ? runToJson(sel.run, sel.run.flagged, runEphemerides(db, sel.run.id)) : null,
-    events: sel.events.map((e) => ({ ...eventToJson(e), extra: getEventExtra(db, e.id) ?? {} })),
+    events: sel.events.map((e) => Object.assign(eventToJson(e), { extra: getEventExtra(db, e.id) ?? {} })),
   };
 }
 

@@ -73,7 +73,8 @@ export default defineCommand<EventsOptions>({
           // plan: the event's newest manoeuvre plan (keepclear plan), null when none.
           events: events.map((e) => {
             const p = plans.get(e.id);
-            return { ...eventToJson(e, states), extra: getEventExtra(db, e.id) ?? {}, plan: p ? planSummaryToJson(p) : null };
+            // added to eventToJson's object, not spread into a new one (slow in V8 for 10⁵ events)
+            return Object.assign(eventToJson(e, states), { extra: getEventExtra(db, e.id) ?? {}, plan: p ? planSummaryToJson(p) : null });
           }),
         });
       }

@@ -28,3 +28,30 @@ export interface Encounter {
   /** true when the minimum lies on an edge of the screening window (TCA outside it) */
   readonly atWindowEdge?: boolean;
 }
+
+/**
+ * The encounter's fields in a new object, with `more` added (later keys win): what
+ * `{ ...e, ...more }` gives. Written out because in V8 (Node 20) every key added to a spread
+ * copy costs ~2 µs — about a second for the risk and ids of an all-vs-all run's 10⁵ events.
+ * Encounter fields are copied by name: an event's other fields (id, run, risk, series) must be
+ * passed in `more`.
+ */
+export function encounterWith<X extends object>(e: Encounter, more: X): Encounter & X {
+  const copy: { -readonly [K in keyof Encounter]: Encounter[K] } = {
+    primary: e.primary,
+    secondary: e.secondary,
+    tca: e.tca,
+    missKm: e.missKm,
+    relativeSpeedKmS: e.relativeSpeedKmS,
+    rtnKm: e.rtnKm,
+    approachAngleDeg: e.approachAngleDeg,
+    entry: e.entry,
+    exit: e.exit,
+    primaryState: e.primaryState,
+    secondaryState: e.secondaryState,
+    primaryEpoch: e.primaryEpoch,
+    secondaryEpoch: e.secondaryEpoch,
+  };
+  if (e.atWindowEdge !== undefined) copy.atWindowEdge = e.atWindowEdge;
+  return Object.assign(copy, more);
+}
