@@ -3,7 +3,7 @@ import type { ElementSet } from '../core/elements/elementSet.js';
 import { EphemerisTrajectory } from '../core/propagation/ephemeris.js';
 import type { Matrix } from '../core/math/linalg.js';
 import { assessEncounter, type AssessInputs, type CovarianceInput } from '../core/risk/assess.js';
-import { assessMany } from '../core/risk/assessMany.js';
+import { assessEach, type RiskJob } from '../core/risk/assessMany.js';
 import { historySample, type HistorySample } from '../core/risk/covarianceHistory.js';
 import type { TierThresholds } from '../core/risk/tiers.js';
 import type { Encounter, RiskAssessment } from '../core/events/index.js';
@@ -111,23 +111,34 @@ export class RiskContext {
    * the screening's (default one per core).
    */
   async assessMany(encounters: readonly Encounter[], workers?: number): Promise<RiskAssessment[]> {
-    // A job is copied to a thread field by field: only what the assessment reads.
+    // A job is copied to a thread field by field: only what the assessment reads. Objects are
+    // written out key by key (a spread copy given more keys is slow in V8: core/events/encounter.ts).
     const slim = (c: CovarianceInput): CovarianceInput => ({
-      ...c,
+      cdmRtnM2: c.cdmRtnM2 ?? null,
+      cdmDoubtfulNote: c.cdmDoubtfulNote ?? null,
+      ephemeris: c.ephemeris ?? null,
       history: null,
+      historyStats: c.historyStats ?? null,
       elements: c.elements ? { epoch: c.elements.epoch, meanMotionRevPerDay: c.elements.meanMotionRevPerDay, eccentricity: c.elements.eccentricity } : null,
+      ...(c.regime !== undefined ? { regime: c.regime } : {}),
     });
-    const jobs = encounters.map((e) => {
+    const job = (i: number): RiskJob => {
+      const e = encounters[i]!;
       const inputs = this.inputsOf(e);
       return {
         encounter: {
           tca: e.tca, missKm: e.missKm, primaryState: e.primaryState, secondaryState: e.secondaryState,
           primaryEpoch: e.primaryEpoch, secondaryEpoch: e.secondaryEpoch,
         },
-        inputs: { ...inputs, primary: slim(inputs.primary), secondary: slim(inputs.secondary) },
+        inputs: Object.assign({ primary: slim(inputs.primary), secondary: slim(inputs.secondary) }, {
+          hbrPrimaryM: inputs.hbrPrimaryM,
+          hbrSecondaryM: inputs.hbrSecondaryM,
+          ...(inputs.thresholds ? { thresholds: inputs.thresholds } : {}),
+          ...(inputs.encounterModel ? { encounterModel: inputs.encounterModel } : {}),
+        }),
       };
-    });
-    return assessMany(jobs, workers);
+    };
+    return assessEach(encounters.length, job, workers);
   }
 
   private inputsOf(e: Encounter, cdm?: CdmRiskInputs): AssessInputs {

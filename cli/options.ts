@@ -39,7 +39,7 @@ export const workersOption: OptionSpec = {
 
 export const allEventsOption: OptionSpec = {
   flags: '--all-events',
-  description: 'list every event in the terminal, not only those above the lowest tier',
+  description: 'list every event in the terminal, not only the (at most 100) highest-Pc ones above the lowest tier',
 };
 
 /** Largest N of --shard K/N: far beyond any batch engine's array size of practical use. */

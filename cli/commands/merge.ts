@@ -30,7 +30,7 @@ export default defineCommand<MergeOptions>({
     const { openDatabase, defaultDbPath } = await import('../../db/index.js');
     const { eventToJson, runToJson } = await import('../../app/eventJson.js');
     const { seriesStatesOf } = await import('../../app/seriesJson.js');
-    const { eventSummary } = await import('../present/events.js');
+    const { eventSummary, SCREEN_SUMMARY_ROWS } = await import('../present/events.js');
     const { writeJsonWithCaution } = await import('../present/json.js');
     // Every file is read and checked before the database is opened: a bad shard changes nothing.
     const files = args.map((file) => {
@@ -47,7 +47,7 @@ export default defineCommand<MergeOptions>({
       }
       if (o.json !== '-') {
         process.stdout.write(`run ${run.id}: ${shards} shard(s) merged, ${events.length} event(s), ${run.objectCount} objects\n`);
-        process.stdout.write(eventSummary(events, o.allEvents === true));
+        process.stdout.write(eventSummary(events, o.allEvents === true, [], undefined, SCREEN_SUMMARY_ROWS));
       }
       return 0;
     } finally {

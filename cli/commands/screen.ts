@@ -175,7 +175,7 @@ export default defineCommand<ScreenOptions>({
       { attentionJson, attentionOf, updateAttentionFile },
       { seriesCounts },
       { presentFileOutcome, presentImportTotal },
-      { eventSummary },
+      { eventSummary, SCREEN_SUMMARY_ROWS },
       { writeJsonWithCaution, writeJsonListWithCaution },
       { progress },
       { describeEphemeris },
@@ -273,7 +273,7 @@ export default defineCommand<ScreenOptions>({
               : `Attention: no event at or above ${attention.tier}.`,
           );
         }
-        process.stdout.write(eventSummary(events, o.allEvents === true, more));
+        process.stdout.write(eventSummary(events, o.allEvents === true, more, undefined, SCREEN_SUMMARY_ROWS));
       }
       phase('summary');
       if (run.status === 'cancelled') return 1;

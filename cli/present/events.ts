@@ -57,7 +57,8 @@ export function eventTable(events: readonly ConjunctionEvent[], plans?: Readonly
     e.risk?.covarianceSource ?? '—',
     ...(withPlans ? [plans!.get(e.id) ?? ''] : []),
   ]);
-  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
+  // a loop, not Math.max(...rows): 10⁵ arguments (--all-events on an all-vs-all run) overflow the stack
+  const widths = head.map((h, i) => rows.reduce((w, r) => Math.max(w, r[i]!.length), h.length));
   const line = (r: string[]) => r.map((c, i) => c.padEnd(widths[i]!)).join('  ').trimEnd();
   return [line(head), ...rows.map(line)].join('\n') + '\n';
 }
@@ -67,6 +68,13 @@ export function eventTable(events: readonly ConjunctionEvent[], plans?: Readonly
  * (or all, by TCA, with `all`), a pointer to the rest, `more` lines (series counts), and the
  * decision-aid note.
  */
+/**
+ * Rows of "needing attention" a screening's terminal summary lists (highest Pc first; the rest
+ * are counted and are in --json, the reports and --all-events). An all-vs-all run has ~3·10⁴
+ * events above the lowest tier: nobody reads that many lines, and printing them took seconds.
+ */
+export const SCREEN_SUMMARY_ROWS = 100;
+
 export function eventSummary(
   events: readonly ConjunctionEvent[],
   all: boolean,

@@ -28,20 +28,36 @@ export const PARALLEL_RISK_MIN_JOBS = 2000;
 const BATCH = 1000;
 
 /** Assessments of `jobs` in their order; `workers` threads (default one per core; 0: this thread). */
-export async function assessMany(jobs: readonly RiskJob[], workers = availableParallelism()): Promise<RiskAssessment[]> {
-  const n = Math.min(workers, Math.ceil(jobs.length / BATCH));
-  if (n <= 0 || jobs.length < PARALLEL_RISK_MIN_JOBS) return jobs.map((j) => assessEncounter(j.encounter, j.inputs));
+export function assessMany(jobs: readonly RiskJob[], workers = availableParallelism()): Promise<RiskAssessment[]> {
+  return assessEach(jobs.length, (i) => jobs[i]!, workers);
+}
+
+/**
+ * assessMany of the jobs jobAt(0) … jobAt(count − 1), each made when its batch is sent: the
+ * threads start at once and work while this thread makes the next batches, instead of waiting
+ * for all 10⁵ jobs (seconds of database reads and copying) to be made first.
+ */
+export async function assessEach(count: number, jobAt: (i: number) => RiskJob, workers = availableParallelism()): Promise<RiskAssessment[]> {
+  const n = Math.min(workers, Math.ceil(count / BATCH));
+  if (n <= 0 || count < PARALLEL_RISK_MIN_JOBS) {
+    return Array.from({ length: count }, (_, i) => {
+      const j = jobAt(i);
+      return assessEncounter(j.encounter, j.inputs);
+    });
+  }
   const threads = await startWorkers('./worker.ts', import.meta.url, n);
   const apis = threads.map((w) => wrap<RiskWorkerApi>(nodeEndpoint(w)));
   try {
-    const out = new Array<RiskAssessment>(jobs.length);
+    const out = new Array<RiskAssessment>(count);
     let next = 0;
     await Promise.all(
       apis.map(async (api) => {
-        while (next < jobs.length) {
+        while (next < count) {
           const from = next;
-          next = Math.min(jobs.length, next + BATCH);
-          const done = await api.assess(jobs.slice(from, next) as RiskJob[]);
+          next = Math.min(count, next + BATCH);
+          const batch = new Array<RiskJob>(next - from);
+          for (let k = 0; k < batch.length; k++) batch[k] = jobAt(from + k);
+          const done = await api.assess(batch);
           for (let k = 0; k < done.length; k++) out[from + k] = done[k]!;
         }
       }),
