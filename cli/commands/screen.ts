@@ -171,7 +171,7 @@ export default defineCommand<ScreenOptions>({
       { screenAndStore },
       { eventToJson, runToJson },
       { seriesStatesOf },
-      { countByState },
+      { countOfStates },
       { attentionJson, attentionOf, updateAttentionFile },
       { seriesCounts },
       { presentFileOutcome, presentImportTotal },
@@ -264,8 +264,8 @@ export default defineCommand<ScreenOptions>({
       if (!jsonOnly) {
         const seconds = ((run.wallMs ?? 0) / 1000).toFixed(2);
         process.stdout.write(`run ${run.id}: ${events.length} event(s), ${run.objectCount} objects, ${seconds} s\n`);
-        const ids = new Set(events.flatMap((e) => (e.seriesId ? [e.seriesId] : [])));
-        const more = ids.size > 0 ? [`${seriesCounts(countByState(db, ids))} (keepclear events --series ID shows one)`] : [];
+        // the run's series, counted from the states already read (not from every stored series)
+        const more = states.size > 0 ? [`${seriesCounts(countOfStates(states))} (keepclear events --series ID shows one)`] : [];
         if (o.attentionExit !== undefined || o.attentionFile !== undefined) {
           more.push(
             attention.needed
