@@ -67,6 +67,9 @@ export interface OpenOptions {
   readonly nativeBinding?: string;
 }
 
+/** SQLite page cache per connection, KiB (used as pages are touched, not reserved). */
+const PAGE_CACHE_KIB = 65_536;
+
 /**
  * Opens (creating if needed) and migrates the database at `path`, then marks `interrupted` the
  * runs whose owner process died on this host. ":memory:" is accepted for tests.
@@ -86,6 +89,10 @@ export function openDatabase(path: string, options: OpenOptions = {}): Keepclear
     sqlite.pragma('journal_mode = WAL');
     sqlite.pragma('synchronous = NORMAL');
     sqlite.pragma('foreign_keys = ON');
+    // Page cache of PAGE_CACHE_KIB (SQLite's default is 2 MiB): storing and linking an
+    // all-vs-all run's 10⁵ events in one transaction touches ~150 MB of pages, and with the
+    // default cache they spilled and were read again (linking 124,503 events: 9–10 s → 7.9 s).
+    sqlite.pragma(`cache_size = -${PAGE_CACHE_KIB}`);
   } catch (err) {
     const storage = storageError(err, path, busyTimeoutMs);
     if (storage && storage.code !== 'FILE_UNREADABLE') throw storage;
