@@ -35,7 +35,7 @@ export interface ScreenRequest {
    */
   readonly dataAt?: Instant;
   /**
-   * Called as each phase ends (screening, risk, store and link, read back) with its wall time
+   * Called as each phase ends (screening, risk, store and link, series ids) with its wall time
    * in ms: the benchmark's phase timings (KEEPCLEAR_PHASES=1 on the command line).
    */
   readonly onPhase?: (phase: string, ms: number) => void;
@@ -140,7 +140,7 @@ export async function screenAndStore(db: KeepclearDb, req: ScreenRequest): Promi
     ephemerides: runEphemerides(db, runId),
     notes: choice.notes,
   };
-  phase('read back');
+  phase('series ids');
   return result;
 }
 
@@ -162,8 +162,8 @@ function asLinked(db: KeepclearDb, runId: string, stored: readonly ConjunctionEv
 
 /**
  * The risk of each encounter, then the run stored and linked in one transaction. A function of
- * its own so that the encounters and their assessed copies are garbage once it returns (an
- * all-vs-all run holds ~10⁵), before the stored events are read back.
+ * its own so that the assessed copies of the encounters (an all-vs-all run has ~10⁵) are garbage
+ * once it returns: only the events as stored are kept, and handed back.
  */
 async function assessAndStore(
   db: KeepclearDb,
