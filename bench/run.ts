@@ -19,7 +19,7 @@ import { join } from 'node:path';
 import type { Instant } from '../core/time/instant.js';
 import { runScreening } from '../core/screening/run.js';
 import { packSets, unpackSets } from '../core/screening/packedSets.js';
-import { ScreeningChunk } from '../core/screening/chunk.js';
+import { newControl, ScreeningChunk } from '../core/screening/chunk.js';
 import { latestElementSets, openDatabase } from '../db/index.js';
 import { benchCatalogueDb, BENCH_START, benchSets, CACHE_DIR, scratchCopy } from './catalogueDb.js';
 import { timeCommand } from './command.js';
@@ -103,7 +103,7 @@ async function main(): Promise<void> {
       const times: number[] = [], cpu: number[] = [];
       for (let k = 0; k < 3; k++) {
         const c0 = process.cpuUsage(), t0 = performance.now();
-        const chunk = new ScreeningChunk(unpackSets(structuredClone(packSets(loaded))), settings, new Int32Array(2));
+        const chunk = new ScreeningChunk(unpackSets(structuredClone(packSets(loaded))), settings, newControl());
         chunk.checkPropagation();
         times.push((performance.now() - t0) / 1000);
         const c = process.cpuUsage(c0);

@@ -6,7 +6,7 @@ import type { ElementSet } from '../elements/elementSet.js';
 import { KeepclearError } from '../errors.js';
 import { startWorkers } from '../workers/entry.js';
 import { packSets } from './packedSets.js';
-import { CTRL_CANCEL, CTRL_DONE, ScreeningChunk, type ChunkResult, type GridLayout, type SampledPrimary } from './chunk.js';
+import { CTRL_CANCEL, CTRL_DONE, newControl, ScreeningChunk, type ChunkResult, type GridLayout, type SampledPrimary } from './chunk.js';
 import { gridPointCount, gridStepMs } from './primaryGrid.js';
 import { MODEL_MARGIN_MS, objectFromSamples, type WindowSettings } from './engine.js';
 import type { Instant } from '../time/instant.js';
@@ -90,7 +90,7 @@ export async function runScreening(
   if (!Number.isInteger(nWorkers) || nWorkers < 0) {
     throw new KeepclearError('BAD_ARGUMENT', `worker count must be a whole number ≥ 0, got ${nWorkers}`);
   }
-  const control = new Int32Array(new SharedArrayBuffer(8));
+  const control = newControl();
   const bySet = new Map(elementSets.map((e) => [e.objectId, e]));
   // Trajectory primaries: sampled here into shared memory; their element sets step aside.
   const sampled: SampledPrimary[] = [...given.values()].map((p) => ({
@@ -131,7 +131,7 @@ export async function runScreening(
       else {
         const built = chunk.buildGrids(layout, new Float64Array(gridBuffer));
         chunk.attachGrids(built, new Float64Array(gridBuffer));
-        results = [chunk.screenShared(primaries, 0, 1)];
+        results = [chunk.screenShared(primaries)];
       }
     } else {
       results = await inWorkers(nWorkers, catalog, sampled, win, control, all, primaries, layout, gridBuffer);
@@ -198,7 +198,7 @@ async function inWorkers(
     const built: GridLayout[] = (await Promise.all(apis.map((a, i) => a.buildGrids(parts[i]!, gridBuffer)))).flat();
     await Promise.all(apis.map((a) => a.attachGrids(built, gridBuffer)));
     // A primary whose grid failed was flagged by the worker that built it.
-    return await Promise.all(apis.map((a, i) => a.screenShared(primaries, i, n)));
+    return await Promise.all(apis.map((a) => a.screenShared(primaries)));
   } finally {
     for (const a of apis) a[releaseProxy]();
     await Promise.all(workers.map((w) => w.terminate()));

@@ -10,7 +10,7 @@ export interface ScreeningWorkerApi {
   init(packed: PackedSets, settings: WindowSettings, control: SharedArrayBuffer, sampled: SampledPrimary[]): void;
   buildGrids(layout: { id: string; offset: number; count: number; stepMs: number }[], grids: SharedArrayBuffer): GridLayout[];
   attachGrids(layout: GridLayout[], grids: SharedArrayBuffer): void;
-  screenShared(primaryIds: string[], part: number, parts: number): ChunkResult;
+  screenShared(primaryIds: string[]): ChunkResult;
   screenAllPairs(part: number, parts: number): ChunkResult;
 }
 
@@ -26,7 +26,7 @@ const api: ScreeningWorkerApi = {
   },
   buildGrids: (layout, grids) => need().buildGrids(layout, new Float64Array(grids)),
   attachGrids: (layout, grids) => need().attachGrids(layout, new Float64Array(grids)),
-  screenShared: (ids, part, parts) => need().screenShared(ids, part, parts),
+  screenShared: (ids) => need().screenShared(ids),
   screenAllPairs: (part, parts) => need().screenAllPairs(part, parts),
 };
 
