@@ -2,7 +2,7 @@ import type { Instant } from '../core/time/instant.js';
 import { KeepclearError } from '../core/errors.js';
 import { runScreening, type ScreeningOutcome } from '../core/screening/run.js';
 import type { ScreeningSettings } from '../core/screening/types.js';
-import { encounterWith, type ConjunctionEvent } from '../core/events/index.js';
+import { encounterWith, seriesIdFor, type ConjunctionEvent } from '../core/events/index.js';
 import {
   fingerprintOfSets,
   createRun,
@@ -186,6 +186,9 @@ async function assessAndStore(
       wallMs: outcome.wallMs,
       flagged: outcome.flagged,
       events,
+      // Stored with the series each would found; linkRun below changes only those that join an
+      // older series, instead of writing every row again (a new all-vs-all run: none of 124,503).
+      provisionalSeriesId: seriesIdFor,
     });
     // In the same transaction: nobody sees the run's events without their series.
     return linkRun(db, runId);

@@ -62,7 +62,11 @@ export interface LinkOutcome {
   readonly pairs: number;
   /** series of those pairs after linking */
   readonly series: readonly string[];
-  /** events whose series id was set or changed */
+  /**
+   * events whose stored series id linking set or changed (a screening run stores its events with
+   * the id of the series each would found, app/screen.ts: of those only the ones that join an
+   * older series count)
+   */
   readonly reassigned: number;
   /** series ids that no longer exist (an out-of-order message re-founded a series, or two merged) */
   readonly retired: readonly string[];
@@ -188,7 +192,9 @@ export function linkPairs(
         before.delete(s.id);
         for (const m of s.members) if (m.event.seriesId !== s.id) assignments.set(m.event.id, s.id);
       }
-      for (const id of before) retired.add(id);
+      // A provisional id a new event was stored with (RunOutcome.provisionalSeriesId) that
+      // linking did not keep named no stored series: nothing was retired.
+      for (const id of before) if (getSeries(db, id) !== null) retired.add(id);
       all.push(...series);
     }
     setEventSeries(db, assignments);

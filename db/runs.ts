@@ -44,6 +44,11 @@ export interface RunOutcome {
   readonly flagged: readonly FlaggedObject[];
   /** ids and run ids are assigned here; any the caller set are ignored */
   readonly events: readonly NewEvent[];
+  /**
+   * The series id each event is stored with, from its id, until linking (in the same
+   * transaction) sets the real one: see insertEvents. Without it events are stored unlinked (NULL).
+   */
+  readonly provisionalSeriesId?: (eventId: string) => string;
 }
 
 interface RunRow {
@@ -146,7 +151,7 @@ export function finishRun(db: KeepclearDb, runId: string, outcome: RunOutcome): 
     }
     const flag = db.stmt('INSERT INTO run_flagged (run_id, object_id, reason) VALUES (?, ?, ?)');
     for (const f of outcome.flagged) flag.run(runId, f.id, f.reason);
-    const events = insertEvents(db, runId, outcome.events);
+    const events = insertEvents(db, runId, outcome.events, outcome.provisionalSeriesId);
     db.stmt(
       `UPDATE runs SET status = ?, finished_at = ?, wall_ms = ?, event_count = ?, flagged_count = ?
         WHERE id = ?`,

@@ -46,6 +46,21 @@ describe('the events screenAndStore returns', () => {
     expect(again.events).toEqual(back);
   });
 
+  it('are stored with the series they would found, and linking moves those that join an older series', async () => {
+    // The first run's events found their series: linking had nothing to write or retire.
+    const { db, run, events } = await exportFixture();
+    expect(events.map((e) => e.seriesId)).toEqual(events.map((e) => `S-${e.id}`));
+    // The next run sees the same conjunction: its event joins the first run's series; the id it
+    // was stored with is replaced, and no series is reported retired for it.
+    const again = await screenAgain(db);
+    const back = eventsOfRun(db, again.run.id);
+    expect(back.map((e) => e.seriesId)).toEqual(events.map((e) => e.seriesId));
+    expect(again.linked.reassigned).toBe(back.length);
+    expect(again.linked.retired).toEqual([]);
+    expect(again.events).toEqual(back);
+    expect(eventsOfRun(db, run.id)).toEqual(events);
+  });
+
   it('have series states read in one statement that agree with each stored series', async () => {
     const { db, events } = await exportFixture();
     const states = seriesStatesOf(db, [...events, ...events]);
