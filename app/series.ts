@@ -332,7 +332,6 @@ export function toleranceBetween(a: SeriesMember, b: SeriesMember): number {
   return tcaTolerance(sightingView(a.event, a.source.createdAt), sightingView(b.event, b.source.createdAt)).seconds;
 }
 
-/** Counts of series by state (every stored series, or those of the given ids). */
 /** How many of the given series are in each state (states as seriesStatesOf reads them). */
 export function countOfStates(states: ReadonlyMap<string, SeriesState>): Record<SeriesState, number> {
   const counts: Record<SeriesState, number> = { new: 0, updated: 0, 'no-longer-predicted': 0, past: 0 };
@@ -340,6 +339,7 @@ export function countOfStates(states: ReadonlyMap<string, SeriesState>): Record<
   return counts;
 }
 
+/** Counts of series by state (every stored series, or those of the given ids). */
 export function countByState(db: KeepclearDb, ids?: ReadonlySet<string>): Record<SeriesState, number> {
   const counts: Record<SeriesState, number> = { new: 0, updated: 0, 'no-longer-predicted': 0, past: 0 };
   for (const s of listSeries(db)) if (!ids || ids.has(s.id)) counts[s.state]++;

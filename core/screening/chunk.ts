@@ -97,8 +97,9 @@ export class ScreeningChunk {
   }
 
   /**
-   * Screens primaries (with attached grids) against secondaries whose index ≡ part (mod parts).
-   * With `pairsOnce`, a pair of two primaries is screened only from the lower index.
+   * Screens primaries (with attached grids) against the secondaries this thread claims, in blocks
+   * of CLAIM_BLOCK, from the control block's counter shared by every thread of the run. A pair of
+   * two primaries is screened once, from the primary listed first.
    */
   screenShared(primaryIds: readonly string[]): ChunkResult {
     if (this.control.length < CONTROL_SLOTS) {
