@@ -191,7 +191,9 @@ async function assessAndStore(
       provisionalSeriesId: seriesIdFor,
     });
     // In the same transaction: nobody sees the run's events without their series.
-    return linkRun(db, runId);
+    // The run's events as they now stand in the database (with their provisional series ids):
+    // linking need not read them back.
+    return linkRun(db, runId, stored.map((e) => encounterWith(e, { id: e.id, runId: e.runId, risk: e.risk, seriesId: seriesIdFor(e.id) })));
   });
   phase('store and link');
   return { linked, stored };

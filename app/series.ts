@@ -41,6 +41,7 @@ import {
   inTransaction,
   listCdms,
   listSeries,
+  LINKED_RUN_KINDS,
   mergeEventExtra,
   newestDataAt,
   putSeries,
@@ -206,11 +207,28 @@ export function linkPairs(
   });
 }
 
-/** Links the events of one run (a screening run, a merge, a received message), and any left unlinked. */
-export function linkRun(db: KeepclearDb, runId: string): LinkOutcome {
+/**
+ * Links the events of one run (a screening run, a merge, a received message), and any left unlinked.
+ * `own`: the run's events exactly as just stored in this transaction (series id included), when
+ * the caller holds them: then only the other runs' sightings of its pairs are read from the
+ * database (an all-vs-all run's 10⁵ rows are not read back and converted again).
+ */
+export function linkRun(db: KeepclearDb, runId: string, own?: readonly ConjunctionEvent[]): LinkOutcome {
   return inTransaction(db, () => {
+    const run = own ? getRun(db, runId) : null;
+    const linked = run !== null && (LINKED_RUN_KINDS as readonly string[]).includes(run.kind) && (run.status === 'done' || run.status === 'cancelled');
     // The run's pairs with all their stored sightings, in one read.
-    const read = sightingsOfRunPairs(db, runId);
+    const read = sightingsOfRunPairs(db, runId, { otherRunsOnly: linked });
+    if (linked) {
+      // as db/series.ts memberOf makes them: a merge of shards is a screening run for series
+      const source = { id: runId, kind: run.kind === 'cdm' ? ('cdm' as const) : ('screening' as const), createdAt: run.dataAt };
+      for (const event of own!) {
+        const key = pairKeyOf(event.primary, event.secondary);
+        let list = read.get(key);
+        if (!list) read.set(key, (list = []));
+        list.push({ event, source });
+      }
+    }
     const pairs: (readonly [string, string])[] = [];
     for (const members of read.values()) {
       const e = members[0]!.event;

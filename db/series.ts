@@ -76,11 +76,9 @@ const SIGHTING_SELECT = `SELECT e.*, r.kind AS run_kind, COALESCE(r.data_at, r.c
    FROM events e JOIN runs r ON r.id = e.run_id`;
 
 /**
- * The columns of a sighting read for linking: all an event has but its risk detail (covariances,
- * plane; ~400 bytes of JSON) and its extra JSON, which linking never looks at — it needs the
- * pair, TCA, states and epochs (the series rule and a re-assessment), and whether there is a
- * risk. Parsing them for the ~10⁵ sightings of an all-vs-all run cost seconds. The events of
- * linking's members are never written back nor shown: a re-assessment computes a new risk.
+ * The columns of a sighting read for linking: all an event has but its extra JSON, which linking
+ * never looks at. The risk detail stays: the series tolerance takes σ along the relative
+ * velocity from it (core/events/seriesTolerance.ts).
  */
 const LINK_COLUMNS = `e.id, e.run_id, e.seq, e.primary_id, e.secondary_id, e.tca_ms, e.miss_km, e.relative_speed_km_s,
    e.rtn_r_km, e.rtn_t_km, e.rtn_n_km, e.approach_angle_deg, e.entry_ms, e.exit_ms,
@@ -88,10 +86,10 @@ const LINK_COLUMNS = `e.id, e.run_id, e.seq, e.primary_id, e.secondary_id, e.tca
    e.s_x_km, e.s_y_km, e.s_z_km, e.s_vx_km_s, e.s_vy_km_s, e.s_vz_km_s,
    e.primary_epoch_ms, e.secondary_epoch_ms,
    e.pc, e.pc_method, e.covariance_source, e.hard_body_radius_m, e.tier, e.warnings_json,
-   NULL AS risk_detail_json, '{}' AS extra_json, e.series_id,
+   e.risk_detail_json, '{}' AS extra_json, e.series_id,
    r.kind AS run_kind, COALESCE(r.data_at, r.created_at) AS run_data_at`;
 
-/** The stored sightings of one unordered pair (either order), in any order; for linking (LINK_COLUMNS: no risk detail). */
+/** The stored sightings of one unordered pair (either order), in any order; for linking (LINK_COLUMNS: no extra JSON). */
 export function sightingsOfPair(db: KeepclearDb, a: string, b: string): SeriesMember[] {
   const rows = db
     .stmt(
@@ -115,20 +113,22 @@ export function sightingsOfRun(db: KeepclearDb, runId: string): SeriesMember[] {
  * The stored sightings of every pair a run has events of (either order; nothing when the run is
  * of a kind or status that is not linked), by pairKeyOf: what sightingsOfPair gives for each of
  * those pairs, read in one statement instead of one per pair (an all-vs-all run has ~10⁵ pairs).
- * For linking: the events carry no risk detail (LINK_COLUMNS).
+ * For linking: the events carry no extra JSON (LINK_COLUMNS). `otherRunsOnly`: leave out the
+ * run's own events (a caller that holds them adds them itself: app/series.ts linkRun).
  */
-export function sightingsOfRunPairs(db: KeepclearDb, runId: string): Map<string, SeriesMember[]> {
+export function sightingsOfRunPairs(db: KeepclearDb, runId: string, opts: { readonly otherRunsOnly?: boolean } = {}): Map<string, SeriesMember[]> {
+  const others = opts.otherRunsOnly === true;
   const part = (a: string, b: string) =>
     `SELECT ${LINK_COLUMNS}
        FROM p JOIN events e ON e.primary_id = p.${a} AND e.secondary_id = p.${b} JOIN runs r ON r.id = e.run_id
-      WHERE r.kind IN ${LINKED_KINDS} AND r.status IN ${LINKED_STATUSES}`;
+      WHERE r.kind IN ${LINKED_KINDS} AND r.status IN ${LINKED_STATUSES}${others ? ' AND e.run_id <> @run' : ''}`;
   const rows = db
     .stmt(
       `WITH p AS (SELECT DISTINCT x.primary_id AS a, x.secondary_id AS b FROM events x JOIN runs xr ON xr.id = x.run_id
-                   WHERE x.run_id = ? AND xr.kind IN ${LINKED_KINDS} AND xr.status IN ${LINKED_STATUSES})
+                   WHERE x.run_id = @run AND xr.kind IN ${LINKED_KINDS} AND xr.status IN ${LINKED_STATUSES})
        ${part('a', 'b')} UNION ALL ${part('b', 'a')} AND p.a <> p.b`,
     )
-    .iterate(runId) as IterableIterator<SightingRow>;
+    .iterate({ run: runId }) as IterableIterator<SightingRow>;
   const out = new Map<string, SeriesMember[]>();
   const seen = new Set<string>();
   // Row by row: 10⁵ rows of ~40 columns never exist at once beside the members made of them.

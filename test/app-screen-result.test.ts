@@ -12,7 +12,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { cdmTextOfEvent } from '../app/export/index.js';
 import { importFile } from '../app/import/index.js';
 import { seriesStatesOf } from '../app/seriesJson.js';
-import { eventsOfRun, getEvent, getSeries } from '../db/index.js';
+import { eventsOfRun, getEvent, getSeries, sightingsOfRunPairs } from '../db/index.js';
 import { exportFixture, screenAgain } from './support/exportFixture.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'keepclear-screen-result-'));
@@ -59,6 +59,20 @@ describe('the events screenAndStore returns', () => {
     expect(again.linked.retired).toEqual([]);
     expect(again.events).toEqual(back);
     expect(eventsOfRun(db, run.id)).toEqual(events);
+  });
+
+  it('are, as linking takes them from memory, the sightings the database gives for the run (σ of the series rule included)', async () => {
+    const { db, run, events } = await exportFixture();
+    const fromDb = [...sightingsOfRunPairs(db, run.id).values()].flat();
+    expect(fromDb.map((m) => m.event.id).sort()).toEqual(events.map((e) => e.id).sort());
+    for (const m of fromDb) {
+      const mine = events.find((e) => e.id === m.event.id)!;
+      // the series tolerance reads σ along the relative velocity from the risk detail
+      expect(m.event.risk!.detail!.sigmaAlongVelocityM).toBeGreaterThan(0);
+      expect(m.event.risk!.detail).toEqual(mine.risk!.detail);
+      expect(m.event.seriesId).toBe(mine.seriesId);
+      expect(m.source).toEqual({ id: run.id, kind: 'screening', createdAt: run.dataAt });
+    }
   });
 
   it('have series states read in one statement that agree with each stored series', async () => {
