@@ -137,6 +137,8 @@ export function insertEvents(
       ...riskParams(e.risk),
       ...(provisionalSeriesId ? [provisionalSeriesId(id)] : []),
     );
+    // Not encounterWith: only what the row keeps, so these equal the events read back
+    // (atWindowEdge has no column).
     stored.push({
       id,
       runId,

@@ -30,6 +30,13 @@ export function verificationRecords(): VerificationRecord[] {
   return out;
 }
 
+/** The record's reference instants: start to stop by step (min), the stop kept despite rounding (1e-9 min). */
+export function referenceTimes(r: VerificationRecord): number[] {
+  const times: number[] = [];
+  for (let t = r.start; t <= r.stop + 1e-9; t += r.step) times.push(t);
+  return times;
+}
+
 /**
  * TLE checksum by the format's definition (digits summed, '-' counts 1, modulo 10). Three
  * verification sets (33333, 33334, 33335) carry deliberately wrong line-1 checksums — python-sgp4's
