@@ -67,6 +67,35 @@ describe('interpolation and in-step motion pads hold against SGP4', () => {
   });
 });
 
+describe('the broad phase\'s cursor over the tracks', () => {
+  it('gives the same doubles as stateInto, at instants in any order (interval changes both ways)', () => {
+    // TrackCursor keeps each object's current interval and reloads it on change; a stale
+    // interval would show as a different double here.
+    const sets = generateCatalog({ size: 300, seed: 12, epoch: START as Instant });
+    const trs = sets.map((s) => new Sgp4Trajectory(s));
+    const plans = sets.map((s) => samplingPlan(s.meanMotionRevPerDay, s.eccentricity));
+    const members = Int32Array.from(sets.map((_, i) => i).filter((i) => i % 3 !== 1));
+    const t0 = START + 3_600_000, t1 = t0 + 3_600_000;
+    const tracks = new BlockTracks(t0, t1, trs, plans, Int32Array.from(sets.map((_, i) => i)));
+    const cursor = tracks.cursor(members);
+    const n = members.length;
+    const out = Array.from({ length: 6 }, () => new Float64Array(n));
+    const one = new Float64Array(6);
+    const rng = new Rng(5);
+    const instants = [t0, t1, ...Array.from({ length: 40 }, () => rng.uniform(t0, t1)), t0 + 600_000, t0 + 600_001, t0];
+    let compared = 0;
+    for (const t of instants) {
+      cursor.statesAt(t, out[0]!, out[1]!, out[2]!, out[3]!, out[4]!, out[5]!);
+      for (let k = 0; k < n; k++) {
+        tracks.stateInto(members[k]!, t, one, 0);
+        for (let c = 0; c < 6; c++) expect(out[c]![k], `object ${members[k]} at ${t}`).toBe(one[c]);
+        compared++;
+      }
+    }
+    expect(compared).toBe(instants.length * n);
+  });
+});
+
 describe('pairs that meet only at the edge of a cell or a time step are candidates', () => {
   // Straight lines: the Hermite interpolant is exact and the in-step motion is linear, so the
   // only pads at work are the cell geometry and the step bounds. D = 5 km, miss 0.999·D.

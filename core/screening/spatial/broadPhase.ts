@@ -73,11 +73,12 @@ export function broadPhase(
   const gx = new Float64Array(nm), gy = new Float64Array(nm), gz = new Float64Array(nm);
   const gu = new Float64Array(nm), gv = new Float64Array(nm), gw = new Float64Array(nm);
   const gR = new Float64Array(nm), gq = new Float64Array(nm);
+  const cursor = tracks.cursor(members);
   let tests = 0;
   for (let k = k0; k < k1; k++) {
     if (cancelled()) return false;
     const t = s.start + (k + 0.5) * s.stepMs;
-    tracks.statesAt(t, members, px, py, pz, pu, pv, pw);
+    cursor.statesAt(t, px, py, pz, pu, pv, pw);
     cells.reset(cellKm);
     for (let m = 0; m < nm; m++) cells.add(m, px[m]!, py[m]!, pz[m]!);
     cells.build();
