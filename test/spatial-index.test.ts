@@ -13,7 +13,7 @@ import { generateCatalog } from '../core/synthetic/catalog.js';
 import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import { StraightLineTrajectory } from '../core/propagation/straightLine.js';
 import { BlockTracks } from '../core/screening/spatial/blockTracks.js';
-import { broadPhase, indexCellKm, stepPads } from '../core/screening/spatial/broadPhase.js';
+import { broadPhase, FAST_SHARE, indexCellKm, indexLayout, stepPads } from '../core/screening/spatial/broadPhase.js';
 import { HALF_NEIGHBOUR_ROWS, SortedCells } from '../core/screening/spatial/sortedCells.js';
 import { CandidateList } from '../core/screening/spatial/candidates.js';
 import { samplingPlan } from '../core/screening/spatial/sampling.js';
@@ -165,6 +165,88 @@ describe('pairs that meet only at the edge of a cell or a time step are candidat
     const out = new CandidateList();
     broadPhase(tracks, new SortedCells(2), { start: START, stepMs: STEP_MS, dKm: D }, 0, steps, () => true, out, { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0 }, () => false);
     expect(out.length).toBe(0);
+  });
+});
+
+describe('fast objects find partners further than one cell away', () => {
+  // The cells are sized for all but the fastest FAST_SHARE of a block's objects; a fast object
+  // (here 11 km/s among 7.6 km/s ones) looks L cells away. Straight lines, as above: the pads at
+  // work are the cell geometry, the step bounds and L. D = 5 km, miss 0.999·D.
+  const D = 5;
+  const plan = samplingPlan(15.2, 0.0005);
+  const steps = 90;
+  const end = START + steps * STEP_MS;
+  const line = (id: string, r: [number, number, number], v: [number, number, number]) => new StraightLineTrajectory(id, START as Instant, r, v);
+  /** Slow objects on parallel lines 400 km apart, far from the meetings, a little faster than A: they set the cell size. */
+  const fillers = Array.from({ length: 250 }, (_, n) => line(`S${n}`, [-20000 + 400 * (n % 16), -20000 + 400 * Math.floor(n / 16), 3000], [0, 7.7, 0]));
+  /** x passes `where` at tca, y passes where + miss at tca. */
+  const pair = (ids: [string, string], tca: number, where: [number, number, number], missDir: [number, number, number], vx: [number, number, number], vy: [number, number, number]) => {
+    const n = Math.hypot(...missDir);
+    const t = (tca - START) / 1000;
+    return [
+      line(ids[0], [where[0] - vx[0] * t, where[1] - vx[1] * t, where[2] - vx[2] * t], vx),
+      line(ids[1], [0, 1, 2].map((c) => where[c]! + (missDir[c]! / n) * 0.999 * D - vy[c]! * t) as [number, number, number], vy),
+    ];
+  };
+
+  it('slow–fast and fast–fast meetings on step edges and cell faces, edges and corners', () => {
+    const probe = [...fillers, line('F', [0, 0, 0], [0, -11, 0])];
+    const probeTracks = new BlockTracks(START, end, probe, probe.map(() => plan), Int32Array.from(probe.map((_, i) => i)));
+    const layout0 = indexLayout(probeTracks, probe.map((_, i) => i), { start: START, stepMs: STEP_MS, dKm: D });
+    const C = layout0.cellKm;
+    let furtherThanOneCell = 0, cases = 0;
+    const places: [string, [number, number, number]][] = [
+      ['face', [30 * C, 0.4 * C, 0.3 * C]],
+      ['edge', [30 * C, 2 * C, 0.5 * C]],
+      ['corner', [30 * C, 2 * C, -3 * C]],
+    ];
+    for (const [place, where] of places) {
+      for (const dt of [0, -1, 1, STEP_MS / 2]) {
+        for (const [kind, vx, vy] of [
+          ['slow–fast head-on', [0, 7.6, 0.3], [0, -11, -0.2]],
+          ['fast–fast head-on', [0.1, 11, 0], [0, -11, 0.1]],
+          ['slow–fast crossing', [0, 7.6, 0], [11, 0, 0]],
+        ] as [string, [number, number, number], [number, number, number]][]) {
+          const k = 40;
+          const tca = START + k * STEP_MS + dt;
+          const ids: [string, string] = kind.startsWith('fast–fast') ? ['F1', 'F2'] : ['A', 'F'];
+          const objects = [...fillers, ...pair(ids, tca, where, [-1, -1, -1], vx, vy)];
+          const members = objects.map((_, i) => i);
+          const tracks = new BlockTracks(START, end, objects, objects.map(() => plan), Int32Array.from(members));
+          const layout = indexLayout(tracks, members, { start: START, stepMs: STEP_MS, dKm: D });
+          const label = `${kind}, ${place}, TCA at step edge ${dt} ms; cell ${layout.cellKm.toFixed(1)} km, L ${layout.fastReachCells}`;
+          // the 11 km/s objects are the fast ones, and only they
+          const fastIds = members.filter((i) => layout.fast[i] === 1).map((i) => objects[i]!.objectId);
+          expect(fastIds, label).toEqual(ids.filter((id) => id.startsWith('F')));
+          expect(layout.fastReachCells, label).toBe(2);
+          const out = new CandidateList();
+          broadPhase(tracks, new SortedCells(objects.length), { start: START, stepMs: STEP_MS, dKm: D }, 0, steps, () => true, out, { steps: 0, objectSteps: 0, pairTests: 0, candidates: 0 }, () => false);
+          const got = out.take();
+          const x = objects.length - 2, y = objects.length - 1;
+          const found = [...got.k].filter((_, c) => got.i[c] === x && got.j[c] === y);
+          const kT = Math.floor((tca - START) / STEP_MS);
+          const want = (tca - START) % STEP_MS === 0 ? [kT - 1, kT] : [kT];
+          expect(found, label).toEqual(expect.arrayContaining(want));
+          // no candidate among the fillers, and each candidate once per step
+          expect(got.i.length, label).toBe(new Set([...got.k].map((kk, c) => `${got.i[c]}-${got.j[c]}-${kk}`)).size);
+          expect([...got.i].every((i) => i >= x), label).toBe(true);
+          // how far apart their cells are at the step centre (the cases must need L = 2)
+          const st = new Float64Array(12);
+          for (const kk of want) {
+            const tc = START + (kk + 0.5) * STEP_MS;
+            objects[x]!.stateInto(tc as Instant, st, 0);
+            objects[y]!.stateInto(tc as Instant, st, 6);
+            const apart = Math.max(...[0, 1, 2].map((c) => Math.abs(Math.floor(st[c]! / layout.cellKm) - Math.floor(st[6 + c]! / layout.cellKm))));
+            if (apart >= 2) furtherThanOneCell++;
+          }
+          cases++;
+        }
+      }
+    }
+    expect(cases).toBe(36);
+    // a good part of the meetings are two cells apart at the step centre: one-cell neighbourhoods would miss them
+    expect(furtherThanOneCell).toBeGreaterThanOrEqual(4);
+    expect(FAST_SHARE * fillers.length).toBeGreaterThanOrEqual(2);
   });
 });
 

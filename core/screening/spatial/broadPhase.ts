@@ -16,14 +16,16 @@
  *
  *   (test 1)  |p_j − p_i|  ≤  D + R_i + R_j,   R_i := |w_i|·Δ/2 + q_i.
  *
- * The cells (sortedCells.ts): with cells of side C ≥ D + 2·max R, two objects passing test 1 are in the same
- * or neighbouring cells (a difference ≤ C in every coordinate moves the cell index by ≤ 1).
- * Only pairs of neighbouring cells are tested; pairs passing test 2 become candidates, refined
- * exactly afterwards (refine.ts). Nearly coplanar pairs need nothing special here: they are
- * tested at every step they share a neighbourhood, whatever their geometry.
+ * The cells (sortedCells.ts): with cells of side C ≥ D + 2·R for the R of all objects but the
+ * fastest few (FAST_SHARE), two such objects passing test 1 are in the same or neighbouring cells
+ * (a difference ≤ C in every coordinate moves the cell index by ≤ 1); a fast object f and any
+ * partner j satisfy |p_j − p_f| ≤ D + 2·max R ≤ L·C, so j is at most L cells away from f in every
+ * coordinate (fastPairs). Only those pairs of cells are tested; pairs passing test 2 become
+ * candidates, refined exactly afterwards (refine.ts). Nearly coplanar pairs need nothing special
+ * here: they are tested at every step they share a neighbourhood, whatever their geometry.
  */
 import { CandidateList } from './candidates.js';
-import { HALF_NEIGHBOUR_ROWS, type SortedCells } from './sortedCells.js';
+import { CELL_LIMIT, cellKey, HALF_NEIGHBOUR_ROWS, type SortedCells } from './sortedCells.js';
 import type { BlockTracks } from './blockTracks.js';
 
 export interface BroadPhaseStats {
@@ -62,27 +64,35 @@ export function broadPhase(
   const nm = members.length;
   const half = s.stepMs / 2000; // Δ/2 in seconds
   const q = stepPads(tracks, list, s.stepMs);
-  const cellKm = indexCellKm(tracks, list, s);
+  const layout = indexLayout(tracks, list, s);
+  const L = layout.fastReachCells;
   const D = s.dKm;
   // The step's states by member (structure of arrays), then gathered in cell order, so pair
   // loops read memory in sequence.
   const px = new Float64Array(nm), py = new Float64Array(nm), pz = new Float64Array(nm);
   const pu = new Float64Array(nm), pv = new Float64Array(nm), pw = new Float64Array(nm);
   const qm = new Float64Array(nm);
-  for (let m = 0; m < nm; m++) qm[m] = q[members[m]!]!;
+  const fm = new Uint8Array(nm);
+  for (let m = 0; m < nm; m++) {
+    qm[m] = q[members[m]!]!;
+    fm[m] = layout.fast[members[m]!]!;
+  }
   const gx = new Float64Array(nm), gy = new Float64Array(nm), gz = new Float64Array(nm);
   const gu = new Float64Array(nm), gv = new Float64Array(nm), gw = new Float64Array(nm);
   const gR = new Float64Array(nm), gq = new Float64Array(nm);
+  const gF = new Uint8Array(nm);
+  const fastAt = new Int32Array(nm);
   const cursor = tracks.cursor(members);
   let tests = 0;
   for (let k = k0; k < k1; k++) {
     if (cancelled()) return false;
     const t = s.start + (k + 0.5) * s.stepMs;
     cursor.statesAt(t, px, py, pz, pu, pv, pw);
-    cells.reset(cellKm);
+    cells.reset(layout.cellKm);
     for (let m = 0; m < nm; m++) cells.add(m, px[m]!, py[m]!, pz[m]!);
     cells.build();
     const sorted = cells.sorted;
+    let nFast = 0;
     for (let x = 0; x < nm; x++) {
       const m = sorted[x]!;
       const u = pu[m]!, v = pv[m]!, w = pw[m]!;
@@ -91,6 +101,8 @@ export function broadPhase(
       // D + R_m, R_m = |w_m|·Δ/2 + q_m
       gR[x] = D + (Math.sqrt(u * u + v * v + w * w) * half + qm[m]!);
       gq[x] = qm[m]!;
+      gF[x] = fm[m]!;
+      if (fm[m] !== 0) fastAt[nFast++] = x;
     }
     stats.steps++;
     stats.objectSteps += nm;
@@ -105,42 +117,70 @@ export function broadPhase(
         const lo = keys[c]! + row.base + row.dzFrom, hi = keys[c]! + row.base + 1;
         while (j < nc && keys[j]! < lo) j++;
         if (j === nc) break;
-        for (let m = j; m < nc && keys[m]! <= hi; m++) pairsOf(at[c]!, at[c + 1]!, at[m]!, at[m + 1]!, k);
+        // the neighbouring cells of the row are consecutive, and so are their objects
+        let m = j;
+        while (m < nc && keys[m]! <= hi) m++;
+        if (m > j) pairsOf(at[c]!, at[c + 1]!, at[j]!, at[m]!, k);
       }
     }
+    for (let f = 0; f < nFast; f++) fastPairs(fastAt[f]!, k);
   }
   stats.pairTests += tests;
   return true;
 
-  /** Tests the pairs of sorted[a0..a1) × sorted[b0..b1), or within sorted[a0..a1) when b0 < 0. */
+  /**
+   * Tests the pairs of sorted[a0..a1) × sorted[b0..b1), or within sorted[a0..a1) when b0 < 0.
+   * Pairs with a fast object are left to fastPairs, which sees all of that object's partners.
+   */
   function pairsOf(a0: number, a1: number, b0: number, b1: number, k: number): void {
-    const sorted = cells.sorted;
     for (let x = a0; x < a1; x++) {
-      const xa = gx[x]!, ya = gy[x]!, za = gz[x]!;
-      const ua = gu[x]!, va = gv[x]!, wa = gw[x]!;
-      const ra = gR[x]!, qa = D + gq[x]!;
       const from = b0 < 0 ? x + 1 : b0, to = b0 < 0 ? a1 : b1;
-      for (let y = from; y < to; y++) {
-        tests++;
-        const dx = gx[y]! - xa, dy = gy[y]! - ya, dz = gz[y]! - za;
-        const l1 = ra + gR[y]! - D; // D + R_a + R_b
-        if (dx * dx + dy * dy + dz * dz > l1 * l1) continue;
-        const wx = gu[y]! - ua, wy = gv[y]! - va, wz = gw[y]! - wa;
-        const ww = wx * wx + wy * wy + wz * wz;
-        let tau = ww > 0 ? -(dx * wx + dy * wy + dz * wz) / ww : 0;
-        if (tau > half) tau = half;
-        else if (tau < -half) tau = -half;
-        const ex = dx + wx * tau, ey = dy + wy * tau, ez = dz + wz * tau;
-        const l2 = qa + gq[y]!;
-        if (ex * ex + ey * ey + ez * ez > l2 * l2) continue;
-        // sorted holds member indices: back to object indices
-        const a = members[sorted[x]!]!, b = members[sorted[y]!]!;
-        const i = a < b ? a : b, j = a < b ? b : a;
-        if (!keep(i, j)) continue;
-        stats.candidates++;
-        out.push(i, j, k);
+      for (let y = from; y < to; y++) if (near(x, y) && gF[x] === 0 && gF[y] === 0) emit(x, y, k);
+    }
+  }
+
+  /** Every pair of the fast object at sorted position x, up to L cells away (a pair of two fast objects from the first). */
+  function fastPairs(x: number, k: number): void {
+    const keys = cells.cellKeys, at = cells.cellStart, nc = cells.cells;
+    const cx = cells.coord(gx[x]!), cy = cells.coord(gy[x]!), cz = cells.coord(gz[x]!);
+    const z0 = Math.max(-CELL_LIMIT, cz - L), z1 = Math.min(CELL_LIMIT, cz + L);
+    for (let ix = Math.max(-CELL_LIMIT, cx - L); ix <= Math.min(CELL_LIMIT, cx + L); ix++) {
+      for (let iy = Math.max(-CELL_LIMIT, cy - L); iy <= Math.min(CELL_LIMIT, cy + L); iy++) {
+        const hi = cellKey(ix, iy, z1);
+        for (let c = cells.firstCellFrom(cellKey(ix, iy, z0)); c < nc && keys[c]! <= hi; c++) {
+          for (let y = at[c]!; y < at[c + 1]!; y++) {
+            if (y === x || (gF[y] !== 0 && y < x)) continue;
+            if (near(x, y)) emit(x, y, k);
+          }
+        }
       }
     }
+  }
+
+  /** Tests 1 and 2 of the header for the objects at sorted positions x and y. */
+  function near(x: number, y: number): boolean {
+    tests++;
+    const dx = gx[y]! - gx[x]!, dy = gy[y]! - gy[x]!, dz = gz[y]! - gz[x]!;
+    const l1 = gR[x]! + gR[y]! - D; // D + R_x + R_y
+    if (dx * dx + dy * dy + dz * dz > l1 * l1) return false;
+    const wx = gu[y]! - gu[x]!, wy = gv[y]! - gv[x]!, wz = gw[y]! - gw[x]!;
+    const ww = wx * wx + wy * wy + wz * wz;
+    let tau = ww > 0 ? -(dx * wx + dy * wy + dz * wz) / ww : 0;
+    if (tau > half) tau = half;
+    else if (tau < -half) tau = -half;
+    const ex = dx + wx * tau, ey = dy + wy * tau, ez = dz + wz * tau;
+    const l2 = D + gq[x]! + gq[y]!;
+    return ex * ex + ey * ey + ez * ez <= l2 * l2;
+  }
+
+  function emit(x: number, y: number, k: number): void {
+    // sorted holds member indices: back to object indices
+    const sorted = cells.sorted;
+    const a = members[sorted[x]!]!, b = members[sorted[y]!]!;
+    const i = a < b ? a : b, j = a < b ? b : a;
+    if (!keep(i, j)) return;
+    stats.candidates++;
+    out.push(i, j, k);
   }
 }
 
@@ -152,11 +192,47 @@ export function stepPads(tracks: BlockTracks, members: readonly number[], stepMs
   return q;
 }
 
-/** Cell side C = D + 2·max R_i with R_i ≤ V_i·Δ/2 + q_i (km): see the header. */
-export function indexCellKm(tracks: BlockTracks, members: readonly number[], s: IndexStepSettings): number {
+/**
+ * Share of a block's objects whose reach may exceed the one the cells are sized for ("fast":
+ * eccentric orbits near perigee, up to ~10 km/s against LEO's 7.6). Sizing the cells for every
+ * object let 0.1 % of them set the cell side for all: 229 km on the 30,000-object bench
+ * catalogue, where 99 % of the objects need at most 183 km (measured). The pair tests per step grow
+ * with the cell volume; each fast object instead looks further for its own partners (fastPairs).
+ */
+export const FAST_SHARE = 0.01;
+
+export interface IndexLayout {
+  /** cell side C (km) */
+  readonly cellKm: number;
+  /** 1 for the fast objects (by object index) */
+  readonly fast: Uint8Array;
+  /** L: how many cells away (in each coordinate) a fast object's partners can be */
+  readonly fastReachCells: number;
+}
+
+/**
+ * The cells of a block: R_i ≤ V_i·Δ/2 + q_i over the block (V_i its speed bound); C = D + 2·R_base,
+ * R_base the largest such bound once the FAST_SHARE largest are set aside; objects above R_base
+ * are fast, and L = ⌈(D + 2·max R)/C⌉ (see the header).
+ */
+export function indexLayout(tracks: BlockTracks, members: readonly number[], s: IndexStepSettings): IndexLayout {
   const half = s.stepMs / 2000;
   const q = stepPads(tracks, members, s.stepMs);
-  let rMax = 0;
-  for (const i of members) rMax = Math.max(rMax, tracks.speedKmS[i]! * half + q[i]!);
-  return s.dKm + 2 * rMax;
+  const reach = Float64Array.from(members, (i) => tracks.speedKmS[i]! * half + q[i]!);
+  const fast = new Uint8Array(tracks.ok.length);
+  const n = reach.length;
+  if (n === 0) return { cellKm: s.dKm, fast, fastReachCells: 1 };
+  const ascending = Float64Array.from(reach).sort();
+  const rBase = ascending[n - 1 - Math.floor(FAST_SHARE * n)]!;
+  const rMax = ascending[n - 1]!;
+  members.forEach((i, m) => {
+    if (reach[m]! > rBase) fast[i] = 1;
+  });
+  const cellKm = s.dKm + 2 * rBase;
+  return { cellKm, fast, fastReachCells: Math.max(1, Math.ceil((s.dKm + 2 * rMax) / cellKm)) };
+}
+
+/** The cell side C of a block (km): indexLayout's. */
+export function indexCellKm(tracks: BlockTracks, members: readonly number[], s: IndexStepSettings): number {
+  return indexLayout(tracks, members, s).cellKm;
 }

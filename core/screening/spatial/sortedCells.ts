@@ -28,6 +28,14 @@ export const HALF_NEIGHBOUR_ROWS: readonly { readonly base: number; readonly dzF
   { base: (1 << 20) + (1 << 10), dzFrom: -1 }, // (+1, +1, −1..+1)
 ];
 
+/** Cell coordinates are clamped to ±CELL_LIMIT. */
+export const CELL_LIMIT = LIMIT;
+
+/** The key of the cell at clamped coordinates (cx, cy, cz). */
+export function cellKey(cx: number, cy: number, cz: number): number {
+  return ((cx + OFFSET) << 20) | ((cy + OFFSET) << 10) | (cz + OFFSET);
+}
+
 export class SortedCells {
   private keys: Int32Array;
   private objs: Int32Array;
@@ -59,13 +67,27 @@ export class SortedCells {
   }
 
   add(obj: number, x: number, y: number, z: number): void {
-    let cx = Math.floor(x * this.inv), cy = Math.floor(y * this.inv), cz = Math.floor(z * this.inv);
-    cx = cx < -LIMIT ? -LIMIT : cx > LIMIT ? LIMIT : cx;
-    cy = cy < -LIMIT ? -LIMIT : cy > LIMIT ? LIMIT : cy;
-    cz = cz < -LIMIT ? -LIMIT : cz > LIMIT ? LIMIT : cz;
-    this.keys[this.n] = ((cx + OFFSET) << 20) | ((cy + OFFSET) << 10) | (cz + OFFSET);
+    this.keys[this.n] = cellKey(this.coord(x), this.coord(y), this.coord(z));
     this.objs[this.n] = obj;
     this.n++;
+  }
+
+  /** The (clamped) cell coordinate of a position coordinate x (km). */
+  coord(x: number): number {
+    const c = Math.floor(x * this.inv);
+    return c < -LIMIT ? -LIMIT : c > LIMIT ? LIMIT : c;
+  }
+
+  /** The first occupied cell whose key is ≥ key (cells when none). */
+  firstCellFrom(key: number): number {
+    let lo = 0, hi = this.cells;
+    const keys = this.cellKeys;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (keys[mid]! < key) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
   }
 
   /** Sorts by key (LSD radix, 3 passes of 10 bits) and finds the runs of equal keys. */
