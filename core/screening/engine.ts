@@ -23,6 +23,8 @@ import { ModelCache } from './modelCache.js';
 export { objectFromElements, objectFromSamples, type ScreeningObject, type WindowSettings } from './screeningObject.js';
 export { MODEL_MARGIN_MS } from './validity.js';
 
+/** Secondaries whose time-filter tables are kept (sharedTables): at least a claimed block of fleet screening (chunk.ts). */
+export const TABLES_KEPT = 128;
 /** Padding of the element-set radius band (see coarseRadiusBand). */
 const COARSE_RADIUS_PAD_KM = 60;
 const COARSE_RADIUS_PAD_FRACTION = 0.01;
@@ -67,11 +69,12 @@ export class ScreeningSession {
   private readonly validity: ValidityProbe;
   private readonly models: ModelCache;
   /**
-   * Per-secondary tables of the time filter, kept for the secondary being screened: fleet
-   * screening visits each secondary once per primary in a row (ScreeningChunk.screenShared),
-   * so they are computed once per secondary instead of once per pair.
+   * Per-secondary tables of the time filter, kept for the last TABLES_KEPT secondaries (oldest
+   * out first, its buffers reused): fleet screening takes a claimed block of secondaries against
+   * each primary in turn (ScreeningChunk.screenShared), so they are computed once per secondary
+   * instead of once per pair.
    */
-  private blocks: { id: string; tables: SecondaryBlocks | null } | null = null;
+  private readonly blocks = new Map<string, SecondaryBlocks | null>();
   /** Per-primary plane normals at the time filter's block boundaries. */
   private readonly normals = new Map<string, Float64Array>();
 
@@ -131,15 +134,23 @@ export class ScreeningSession {
 
   private sharedTables(p: ScreeningObject, mp: OrbitModel, s: ScreeningObject, ms: OrbitModel) {
     const { start, end } = this.settings;
-    if (this.blocks?.id !== s.id) {
-      this.blocks = { id: s.id, tables: secondaryBlocks(ms, start, end, this.blocks?.tables ?? undefined) };
+    let tables = this.blocks.get(s.id);
+    if (tables === undefined) {
+      let reuse: SecondaryBlocks | undefined;
+      if (this.blocks.size >= TABLES_KEPT) {
+        const [oldest, old] = this.blocks.entries().next().value as [string, SecondaryBlocks | null];
+        this.blocks.delete(oldest);
+        reuse = old ?? undefined;
+      }
+      tables = secondaryBlocks(ms, start, end, reuse);
+      this.blocks.set(s.id, tables);
     }
     let normals = this.normals.get(p.id);
     if (!normals) {
       normals = primaryBlockNormals(mp, start, end);
       this.normals.set(p.id, normals);
     }
-    return { blocks: this.blocks.tables, normals };
+    return { blocks: tables, normals };
   }
 
   /** All encounters of one primary (with its grid) and one secondary. */
