@@ -19,7 +19,7 @@
  */
 import type { ConjunctionEvent } from './event.js';
 import type { Instant } from '../time/instant.js';
-import { largestCap, sightingView, tcaTolerance, type SightingView } from './seriesTolerance.js';
+import { largestCap, pairKeyOf, sightingView, tcaTolerance, type SightingView } from './seriesTolerance.js';
 
 /** Where a sighting's data came from. */
 export type SeriesSourceKind = 'screening' | 'cdm';
@@ -63,12 +63,22 @@ export function compareByData(a: SeriesMember, b: SeriesMember): number {
   );
 }
 
-interface Item {
-  readonly member: SeriesMember;
-  readonly view: SightingView;
+/**
+ * A sighting and its view, built on first use: a pair seen once (every pair of a new run, 10⁵ in
+ * an all-vs-all one) is never compared, so never needs it.
+ */
+class Item {
+  private built: SightingView | null = null;
+  readonly pairKey: string;
+  constructor(readonly member: SeriesMember) {
+    this.pairKey = pairKeyOf(member.event.primary, member.event.secondary);
+  }
+  get view(): SightingView {
+    return (this.built ??= sightingView(this.member.event, this.member.source.createdAt));
+  }
 }
 
-const itemOf = (member: SeriesMember): Item => ({ member, view: sightingView(member.event, member.source.createdAt) });
+const itemOf = (member: SeriesMember): Item => new Item(member);
 
 /** TCA order with the data order as tie-break: the one canonical order linking works in. */
 const byTca = (a: Item, b: Item): number => a.view.tcaMs - b.view.tcaMs || compareByData(a.member, b.member);
@@ -166,8 +176,8 @@ export function linkSeries(members: readonly SeriesMember[]): Series[] {
   const byPair = new Map<string, Item[]>();
   for (const m of members) {
     const it = itemOf(m);
-    let list = byPair.get(it.view.pairKey);
-    if (!list) byPair.set(it.view.pairKey, (list = []));
+    let list = byPair.get(it.pairKey);
+    if (!list) byPair.set(it.pairKey, (list = []));
     list.push(it);
   }
   const keys = [...byPair.keys()].sort();
@@ -204,10 +214,10 @@ export class SeriesLinker {
     const touched = new Set<string>();
     for (const m of members) {
       const it = itemOf(m);
-      let held = this.items.get(it.view.pairKey);
-      if (!held) this.items.set(it.view.pairKey, (held = new Map()));
+      let held = this.items.get(it.pairKey);
+      if (!held) this.items.set(it.pairKey, (held = new Map()));
       held.set(m.event.id, it);
-      touched.add(it.view.pairKey);
+      touched.add(it.pairKey);
     }
     const changed: Series[] = [];
     const retired: string[] = [];
