@@ -1,6 +1,6 @@
 import type { ElementSet } from '../elements/elementSet.js';
 import { KeepclearError } from '../errors.js';
-import type { Matrix } from '../math/linalg.js';
+import { zeros, type Matrix } from '../math/linalg.js';
 import type { Encounter, Matrix2, Matrix3, RiskAssessment, RiskDetail, StateArray } from '../events/index.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
 import { defaultCovariance, regimeOf } from './covarianceDefault.js';
@@ -94,7 +94,10 @@ const vec = (a: number, b: number, c: number): Vec3n => [a, b, c];
  */
 function asRtn6(rtn: Matrix): Matrix {
   if (rtn.length >= 6) return rtn.slice(0, 6).map((row) => row.slice(0, 6));
-  return Array.from({ length: 6 }, (_, i) => Array.from({ length: 6 }, (_, j) => (i < 3 && j < 3 ? rtn[i]![j]! : 0)));
+  // Loops, not nested Array.from with callbacks (~3 % of the risk phase of 10⁵ encounters, profiled).
+  const out = zeros(6);
+  for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) out[i]![j] = rtn[i]![j]!;
+  return out;
 }
 
 function resolve(input: CovarianceInput, state: StateArray, tca: Instant, epoch: Instant, label: string): Resolved {
