@@ -17,9 +17,35 @@ export const instantFromMs = (ms: number): Instant => ms as Instant;
 export const addSeconds = (t: Instant, s: number): Instant => (t + s * MS_PER_S) as Instant;
 export const secondsBetween = (from: Instant, to: Instant): number => (to - from) / MS_PER_S;
 
-/** ISO 8601 with milliseconds and Z, rounded to the nearest millisecond (edge format). */
+/** Day number and its 'YYYY-MM-DDT' of the last day toIso printed. */
+let isoDay = Number.NaN;
+let isoDayText = '';
+/** Year 10000 (ms): from there on, and before 1970, Date's own formatting (extended years). */
+const ISO_FAST_END_MS = 253_402_300_800_000;
+const pad2 = (x: number): string => (x < 10 ? '0' : '') + x;
+
+/**
+ * ISO 8601 with milliseconds and Z, rounded to the nearest millisecond (edge format): exactly
+ * Date's toISOString. The date part is kept for the last day printed and the time of day written
+ * from integers: an event's JSON prints ~9 instants, nearly all of one or two days, and
+ * Date + toISOString cost ~0.3 µs each (~0.3 s for an all-vs-all run's 10⁵ events, profiled).
+ */
 export function toIso(t: Instant): string {
-  return new Date(Math.round(t)).toISOString();
+  const ms = Math.round(t);
+  if (!(ms >= 0 && ms < ISO_FAST_END_MS)) return new Date(ms).toISOString();
+  const day = Math.floor(ms / MS_PER_DAY);
+  if (day !== isoDay) {
+    isoDay = day;
+    isoDayText = new Date(day * MS_PER_DAY).toISOString().slice(0, 11);
+  }
+  let r = ms - day * MS_PER_DAY;
+  const milli = r % 1000;
+  r = (r - milli) / 1000;
+  const sec = r % 60;
+  r = (r - sec) / 60;
+  const min = r % 60;
+  const hour = (r - min) / 60;
+  return `${isoDayText}${pad2(hour)}:${pad2(min)}:${pad2(sec)}.${milli < 10 ? '00' : milli < 100 ? '0' : ''}${milli}Z`;
 }
 
 const ISO_RE =
