@@ -23,8 +23,11 @@ import { ModelCache } from './modelCache.js';
 export { objectFromElements, objectFromSamples, type ScreeningObject, type WindowSettings } from './screeningObject.js';
 export { MODEL_MARGIN_MS } from './validity.js';
 
-/** Secondaries whose time-filter tables are kept (sharedTables): at least a claimed block of fleet screening (chunk.ts). */
-export const TABLES_KEPT = 128;
+/**
+ * Secondaries whose time-filter tables are kept (sharedTables): at least a claimed block of fleet
+ * screening (chunk.ts). ~8 KB each for a week (8 MB in all), ~35 KB for 30 days.
+ */
+export const TABLES_KEPT = 1024;
 /** Padding of the element-set radius band (see coarseRadiusBand). */
 const COARSE_RADIUS_PAD_KM = 60;
 const COARSE_RADIUS_PAD_FRACTION = 0.01;
