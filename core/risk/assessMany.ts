@@ -52,14 +52,25 @@ export async function assessEach(count: number, jobAt: (i: number) => RiskJob, w
     let next = 0;
     await Promise.all(
       apis.map(async (api) => {
+        // Each thread has its next batch queued while it works on one: made and sent here
+        // before waiting for the batch in hand. Made only after the previous one came back, the
+        // threads sat idle ~1.2 s each of a 10-s assessment of 124,503 encounters (profiled).
+        let inHand: Promise<void> | null = null;
         while (next < count) {
           const from = next;
           next = Math.min(count, next + BATCH);
           const batch = new Array<RiskJob>(next - from);
           for (let k = 0; k < batch.length; k++) batch[k] = jobAt(from + k);
-          const done = await api.assess(batch);
-          for (let k = 0; k < done.length; k++) out[from + k] = done[k]!;
+          const sent = api.assess(batch).then((done) => {
+            for (let k = 0; k < done.length; k++) out[from + k] = done[k]!;
+          });
+          // Handled here too, so a failure while the batch before it is awaited is not an
+          // unhandled rejection; it still rejects where it is awaited.
+          sent.catch(() => undefined);
+          if (inHand) await inHand;
+          inHand = sent;
         }
+        if (inHand) await inHand;
       }),
     );
     return out;
