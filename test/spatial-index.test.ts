@@ -23,6 +23,13 @@ import type { Instant } from '../core/time/instant.js';
 const START = Date.UTC(2026, 11, 3, 6, 0, 0);
 const STEP_MS = 20_000;
 
+/** Meeting points inside a cell of side C (km), near one of its faces, edges and corners. */
+const cellPlaces = (C: number): [string, [number, number, number]][] => [
+  ['face', [30 * C, 0.4 * C, 0.3 * C]],
+  ['edge', [30 * C, 2 * C, 0.5 * C]],
+  ['corner', [30 * C, 2 * C, -3 * C]],
+];
+
 describe('interpolation and in-step motion pads hold against SGP4', () => {
   it('|SGP4 − Hermite| ≤ E and |SGP4 − (p + w·τ)| ≤ q at random instants, every family', () => {
     const sets = generateCatalog({ size: 1200, seed: 11, epoch: START as Instant });
@@ -124,12 +131,7 @@ describe('pairs that meet only at the edge of a cell or a time step are candidat
     const probeTracks = new BlockTracks(START, end, probe, [plan, plan], Int32Array.from([0, 1]));
     const C = indexCellKm(probeTracks, [0, 1], { start: START, stepMs: STEP_MS, dKm: D });
     const cases: { label: string; k: number; dt: number; where: [number, number, number]; missDir: [number, number, number]; vA: number[]; vB: number[] }[] = [];
-    const faces: [string, [number, number, number]][] = [
-      ['face', [30 * C, 0.4 * C, 0.3 * C]],
-      ['edge', [30 * C, 2 * C, 0.5 * C]],
-      ['corner', [30 * C, 2 * C, -3 * C]],
-    ];
-    for (const [name, where] of faces) {
+    for (const [name, where] of cellPlaces(C)) {
       for (const dt of [0, -1, 1, STEP_MS / 2]) {
         // the miss vector straddles the cell boundary (towards −x, −y, −z)
         cases.push({ label: `${name}, TCA at step edge ${dt} ms, head-on`, k: 40, dt, where, missDir: [-1, -1, -1], vA: [0, 7.6, 0.5], vB: [0, -7.5, -0.4] });
@@ -195,12 +197,7 @@ describe('fast objects find partners further than one cell away', () => {
     const layout0 = indexLayout(probeTracks, probe.map((_, i) => i), { start: START, stepMs: STEP_MS, dKm: D });
     const C = layout0.cellKm;
     let furtherThanOneCell = 0, cases = 0;
-    const places: [string, [number, number, number]][] = [
-      ['face', [30 * C, 0.4 * C, 0.3 * C]],
-      ['edge', [30 * C, 2 * C, 0.5 * C]],
-      ['corner', [30 * C, 2 * C, -3 * C]],
-    ];
-    for (const [place, where] of places) {
+    for (const [place, where] of cellPlaces(C)) {
       for (const dt of [0, -1, 1, STEP_MS / 2]) {
         for (const [kind, vx, vy] of [
           ['slow–fast head-on', [0, 7.6, 0.3], [0, -11, -0.2]],
