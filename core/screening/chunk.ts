@@ -128,11 +128,12 @@ export class ScreeningChunk {
         // pair of it survives the first filters.
         if (this.session.validUntil(this.objects[i]!) !== null) block.push(this.objects[i]!);
       }
-      // Primary by primary within the block: a primary's exact grid (~0.5 MB for a week in LEO)
-      // stays in the cache while the block's secondaries are tested against it. Secondary by
-      // secondary, the tests went through every primary's grid in turn (~10 MB for 20) and
-      // missed the cache at nearly every plane crossing (three quarters of the filter's time,
-      // profiled on the 20-primary bench week).
+      // Primary by primary within the block, so that a primary's exact grid (~0.5 MB for a week
+      // in LEO) is read for many pairs in a row. Secondary by secondary, the plane-crossing
+      // tests went through every primary's grid in turn (~10 MB for 20): random reads cost
+      // 21–35 ns in one grid and 93–111 ns across 20 (measured), and those reads were three
+      // quarters of the filter's own time in the profile of the 20-primary bench week. Measured
+      // gain: 7.56–8.58 → 7.45–7.66 s for that week (3 alternating runs each).
       for (const { o: p, g } of prim) {
         for (const s of block) {
           if (Atomics.load(this.control, CTRL_CANCEL)) return this.result(out, true);
