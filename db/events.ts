@@ -1,5 +1,6 @@
 import { KeepclearError } from '../core/errors.js';
 import type { ConjunctionEvent, Encounter, RiskAssessment, RiskDetail, StateArray } from '../core/events/index.js';
+import { encounterFields } from '../core/events/index.js';
 import { instantFromMs } from '../core/time/instant.js';
 import type { KeepclearDb } from './connection.js';
 
@@ -137,26 +138,8 @@ export function insertEvents(
       ...riskParams(e.risk),
       ...(provisionalSeriesId ? [provisionalSeriesId(id)] : []),
     );
-    // Not encounterWith: only what the row keeps, so these equal the events read back
-    // (atWindowEdge has no column).
-    stored.push({
-      id,
-      runId,
-      primary: e.primary,
-      secondary: e.secondary,
-      tca: e.tca,
-      missKm: e.missKm,
-      relativeSpeedKmS: e.relativeSpeedKmS,
-      rtnKm: e.rtnKm,
-      approachAngleDeg: e.approachAngleDeg,
-      entry: e.entry,
-      exit: e.exit,
-      primaryState: e.primaryState,
-      secondaryState: e.secondaryState,
-      primaryEpoch: e.primaryEpoch,
-      secondaryEpoch: e.secondaryEpoch,
-      risk: e.risk ?? null,
-    });
+    // Only what the row keeps, so these equal the events read back (atWindowEdge has no column).
+    stored.push(Object.assign(encounterFields(e), { id, runId, risk: e.risk ?? null }));
   });
   return stored;
 }

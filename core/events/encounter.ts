@@ -37,7 +37,17 @@ export interface Encounter {
  * passed in `more`.
  */
 export function encounterWith<X extends object>(e: Encounter, more: X): Encounter & X {
-  const copy: { -readonly [K in keyof Encounter]: Encounter[K] } = {
+  const copy: { -readonly [K in keyof Encounter]: Encounter[K] } = encounterFields(e);
+  if (e.atWindowEdge !== undefined) copy.atWindowEdge = e.atWindowEdge;
+  return Object.assign(copy, more);
+}
+
+/**
+ * The encounter's fields that a stored event keeps, in a new object (everything but
+ * atWindowEdge, which has no column): what encounterWith copies, and what insertEvents hands back.
+ */
+export function encounterFields(e: Encounter): Omit<Encounter, 'atWindowEdge'> {
+  return {
     primary: e.primary,
     secondary: e.secondary,
     tca: e.tca,
@@ -52,6 +62,4 @@ export function encounterWith<X extends object>(e: Encounter, more: X): Encounte
     primaryEpoch: e.primaryEpoch,
     secondaryEpoch: e.secondaryEpoch,
   };
-  if (e.atWindowEdge !== undefined) copy.atWindowEdge = e.atWindowEdge;
-  return Object.assign(copy, more);
 }
