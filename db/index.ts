@@ -21,7 +21,7 @@ export {
   type StoreResult,
 } from './elementSets.js';
 export { EPOCH_MATCH_MS, ELEMENT_DIGITS, elementsKey } from './sameElements.js';
-export { catalogFingerprint, fingerprintOfSets } from './fingerprint.js';
+export { catalogFingerprint, fingerprintOfCatalogue, fingerprintOfSets, readCatalogue, type CatalogueSnapshot } from './fingerprint.js';
 export {
   listImportFiles,
   rejectionsOfImport,

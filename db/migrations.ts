@@ -6,6 +6,7 @@ import { SCHEMA_V4_SERIES } from './schemaV4.js';
 import { SCHEMA_V5_EPHEMERIDES } from './schemaV5.js';
 import { SCHEMA_V6_PLANS } from './schemaV6.js';
 import { SCHEMA_V7_EVENT_PAIRS } from './schemaV7.js';
+import { SCHEMA_V8_CATALOG_STATE } from './schemaV8.js';
 
 /** One schema step. `version` is the PRAGMA user_version the database has after it. */
 export interface Migration {
@@ -54,6 +55,11 @@ export const MIGRATIONS: readonly Migration[] = [
     version: 7,
     name: 'index of events by pair (linking reads every sighting of a pair)',
     up: (db) => db.sqlite.exec(SCHEMA_V7_EVENT_PAIRS),
+  },
+  {
+    version: 8,
+    name: 'catalogue fingerprint kept with the generation of the element sets (moved on by triggers)',
+    up: (db) => db.sqlite.exec(SCHEMA_V8_CATALOG_STATE),
   },
 ];
 

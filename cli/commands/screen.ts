@@ -207,7 +207,8 @@ export default defineCommand<ScreenOptions>({
         const out = jsonOnly ? process.stderr : process.stdout;
         // Loaded only when there is something to import: the readers (XML parser included) cost ~0.1 s.
         const { importFiles } = await import('../../app/import/index.js');
-        const summary = importFiles(db, { files: o.catalog, onFile: (f) => presentFileOutcome(f, out) });
+        // The screening below computes the catalogue's fingerprint while its workers start.
+        const summary = importFiles(db, { files: o.catalog, onFile: (f) => presentFileOutcome(f, out), keepFingerprint: false });
         presentImportTotal(summary, out);
         if (!summary.clean) exit = 1;
       }

@@ -8,7 +8,7 @@ import { wrap, releaseProxy } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { availableParallelism } from 'node:os';
 import type { RiskAssessment } from '../events/index.js';
-import { startWorkers } from '../workers/entry.js';
+import { startWorkers, stopWorkers } from '../workers/entry.js';
 import { assessEncounter, type AssessInputs, type EncounterAtTca } from './assess.js';
 import type { RiskWorkerApi } from './worker.js';
 
@@ -76,6 +76,6 @@ export async function assessEach(count: number, jobAt: (i: number) => RiskJob, w
     return out;
   } finally {
     for (const a of apis) a[releaseProxy]();
-    await Promise.all(threads.map((w) => w.terminate()));
+    stopWorkers(threads);
   }
 }

@@ -4,7 +4,7 @@ import { availableParallelism } from 'node:os';
 import type { Worker } from 'node:worker_threads';
 import type { ElementSet } from '../elements/elementSet.js';
 import { KeepclearError } from '../errors.js';
-import { startWorkers } from '../workers/entry.js';
+import { startWorkers, stopWorkers } from '../workers/entry.js';
 import { packSets } from './packedSets.js';
 import { CTRL_CANCEL, CTRL_DONE, newControl, ScreeningChunk, type ChunkResult, type GridLayout, type SampledPrimary } from './chunk.js';
 import { gridPointCount, gridStepMs } from './primaryGrid.js';
@@ -201,7 +201,7 @@ async function inWorkers(
     return await Promise.all(apis.map((a) => a.screenShared(primaries)));
   } finally {
     for (const a of apis) a[releaseProxy]();
-    await Promise.all(workers.map((w) => w.terminate()));
+    stopWorkers(workers);
   }
 }
 

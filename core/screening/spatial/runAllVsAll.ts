@@ -8,7 +8,7 @@
 import { wrap, releaseProxy, type Remote } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import type { ElementSet } from '../../elements/elementSet.js';
-import { startWorkers } from '../../workers/entry.js';
+import { startWorkers, stopWorkers } from '../../workers/entry.js';
 import { packSets } from '../packedSets.js';
 import type { ChunkResult } from '../chunk.js';
 import type { WindowSettings } from '../engine.js';
@@ -51,7 +51,7 @@ export async function runAllVsAll(
     return await drive(apis as unknown as Side[], local, elementSets.length, win);
   } finally {
     for (const a of apis) a[releaseProxy]();
-    await Promise.all(workers.map((w) => w.terminate()));
+    stopWorkers(workers);
   }
 }
 
