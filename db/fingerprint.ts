@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
-import type { ElementSet } from '../core/elements/elementSet.js';
+import type { OrbitElements } from '../core/elements/elementSet.js';
 import type { KeepclearDb } from './connection.js';
-import { latestElementSets } from './elementSets.js';
+import { latestElementSets, latestOrbits } from './elementSets.js';
 import { elementsKey } from './sameElements.js';
 import { storageError } from './storageErrors.js';
 
@@ -18,16 +18,16 @@ export function catalogFingerprint(db: KeepclearDb, ids?: readonly string[]): st
   return keptFingerprint(db) ?? fingerprintOfCatalogue(db, readCatalogue(db));
 }
 
-/** The latest set of every object, and the generation of element_sets they were read at. */
+/** The latest set of every object (latestOrbits), and the generation of element_sets they were read at. */
 export interface CatalogueSnapshot {
-  readonly sets: ElementSet[];
+  readonly sets: OrbitElements[];
   readonly generation: number;
 }
 
-/** latestElementSets(db) and its generation, read in one transaction (one snapshot of the file). */
+/** latestOrbits(db) and its generation, read in one transaction (one snapshot of the file). */
 export function readCatalogue(db: KeepclearDb): CatalogueSnapshot {
   try {
-    return db.sqlite.transaction(() => ({ generation: generationOf(db), sets: latestElementSets(db) })).deferred();
+    return db.sqlite.transaction(() => ({ generation: generationOf(db), sets: latestOrbits(db) })).deferred();
   } catch (err) {
     throw storageError(err, db.path, db.busyTimeoutMs) ?? err;
   }
@@ -56,10 +56,10 @@ export function fingerprintOfCatalogue(db: KeepclearDb, snapshot: CatalogueSnaps
 }
 
 /**
- * The same fingerprint of sets already loaded (latestElementSets), so a caller holding them
+ * The same fingerprint of sets already loaded (latestElementSets, latestOrbits), so a caller holding them
  * does not read the catalogue twice. Sorts a copy.
  */
-export function fingerprintOfSets(latest: readonly ElementSet[]): string {
+export function fingerprintOfSets(latest: readonly OrbitElements[]): string {
   const sets = [...latest];
   // Sort here, not in SQL: JS code-unit order is the same on every machine, collations may not be.
   sets.sort((a, b) => (a.objectId < b.objectId ? -1 : a.objectId > b.objectId ? 1 : 0));

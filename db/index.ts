@@ -16,6 +16,7 @@ export { getObject, countObjects, setHardBodyRadius, objectsWithDesignator, type
 export {
   storeElementSets,
   latestElementSets,
+  latestOrbits,
   elementSetHistory,
   supersededElementSets,
   type StoreResult,

@@ -1,4 +1,4 @@
-import type { ElementSet } from '../core/elements/elementSet.js';
+import type { OrbitElements } from '../core/elements/elementSet.js';
 
 /**
  * When two element sets are "the same set". Not SQL: the rule is shared by the store (idempotent
@@ -22,7 +22,7 @@ export const ELEMENT_DIGITS = 12;
 const num = (x: number): string => (x === 0 ? '0' : x.toPrecision(ELEMENT_DIGITS));
 
 /** Canonical text of the orbit-defining fields (not name, designator or source). */
-export function elementsKey(s: ElementSet): string {
+export function elementsKey(s: OrbitElements): string {
   return [
     s.classification,
     num(s.meanMotionRevPerDay),

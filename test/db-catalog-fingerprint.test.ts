@@ -110,11 +110,17 @@ describe('kept catalogue fingerprint', () => {
     b.close();
   });
 
-  it('readCatalogue reads sets and generation from one snapshot', () => {
+  it('readCatalogue reads the latest orbits and their generation from one snapshot', () => {
     const db = openDatabase(':memory:');
-    storeElementSets(db, FILE, [set('1', at(0)), set('2', at(1))], []);
+    storeElementSets(db, FILE, [set('1', at(0)), set('2', at(1)), set('3', at(0), { classification: 'C', elementSetNo: 7 })], []);
+    storeElementSets(db, FILE, [set('1', at(5), { meanAnomalyDeg: 10.5 }), set('2', at(1), { bstar: 3e-4 })], []); // newer; correction
     const snap = readCatalogue(db);
-    expect(snap.sets).toEqual(latestElementSets(db));
+    // latestElementSets without name, designator and source: the newest epoch, the correction.
+    const orbitOf = ({ name: _n, intlDesignator: _i, source: _s, ...orbit }: ElementSet) => orbit;
+    expect(snap.sets).toEqual(latestElementSets(db).map(orbitOf));
+    expect(snap.sets.map((s) => [s.objectId, s.epoch, s.bstar])).toEqual([['1', at(5), 1.2345e-4], ['2', at(1), 3e-4], ['3', at(0), 1.2345e-4]]);
+    expect(snap.sets[2]).toMatchObject({ classification: 'C', elementSetNo: 7 });
+    expect(fingerprintOfSets(snap.sets)).toBe(fresh(db));
     expect(snap.generation).toBe(state(db).generation);
     expect(snap.generation).toBeGreaterThan(0);
     db.close();

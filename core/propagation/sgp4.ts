@@ -1,6 +1,6 @@
 import { jday, type SatRec } from 'satellite.js';
 import { days2mdhms } from '../../node_modules/satellite.js/dist/ext.js';
-import type { ElementSet } from '../elements/elementSet.js';
+import type { OrbitElements } from '../elements/elementSet.js';
 import { sgp4Into } from './sgp4Kernel.js';
 import { Sgp4Record, sgp4InitRecord } from './sgp4InitKernel.js';
 import { MS_PER_DAY, type Instant } from '../time/instant.js';
@@ -61,7 +61,7 @@ function referenceDayOfYear(epoch: Instant, year: number): number {
  * days2mdhms is not in the package's export map, so it is reached by file
  * path; opsmode 'i' and WGS-72 are the mode of the reference output.
  */
-export function makeSatrec(es: ElementSet): SatRec {
+export function makeSatrec(es: OrbitElements): SatRec {
   const year = new Date(Math.floor(es.epoch)).getUTCFullYear();
   const epochdays = referenceDayOfYear(es.epoch, year);
   const { mon, day, hr, minute, sec } = days2mdhms(year, epochdays);
@@ -91,7 +91,7 @@ export function makeSatrec(es: ElementSet): SatRec {
  * exactly 1 or a negative mean motion (measured with satellite.js 7.1), while the reference
  * code (python-sgp4 2.15) refuses them outright.
  */
-function domainFailure(es: ElementSet): FailureReason | null {
+function domainFailure(es: OrbitElements): FailureReason | null {
   if (!(es.eccentricity >= 0 && es.eccentricity < 1)) return 'bad-mean-eccentricity';
   if (!(es.meanMotionRevPerDay > 0)) return 'negative-mean-motion';
   const fin = Number.isFinite; // written out: runs once per object of a run (no array)
@@ -108,7 +108,7 @@ export class Sgp4Trajectory implements Trajectory, MeanElementSource {
   private rec: SatRec | null = null;
   private failure: FailureReason | null | undefined = undefined;
 
-  constructor(readonly elements: ElementSet) {
+  constructor(readonly elements: OrbitElements) {
     this.objectId = elements.objectId;
     this.epoch = elements.epoch;
   }

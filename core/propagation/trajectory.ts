@@ -1,6 +1,6 @@
 import type { SatRec } from 'satellite.js';
 import type { Instant } from '../time/instant.js';
-import type { ElementSet } from '../elements/elementSet.js';
+import type { OrbitElements } from '../elements/elementSet.js';
 
 /**
  * Why a trajectory could not give a state. SGP4's numeric error codes become these names
@@ -46,7 +46,7 @@ export interface Trajectory {
 
 /** SGP4 element set behind a trajectory (see Trajectory.meanElementSource). */
 export interface MeanElementSource {
-  readonly elements: ElementSet;
+  readonly elements: OrbitElements;
   /** the SGP4 record, initialised on first use */
   readonly satrec: SatRec;
   /** set when the element set cannot even be initialised (e.g. eccentricity ≥ 1) */

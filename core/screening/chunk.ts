@@ -1,5 +1,5 @@
 import { KeepclearError } from '../errors.js';
-import type { ElementSet } from '../elements/elementSet.js';
+import type { OrbitElements } from '../elements/elementSet.js';
 import { objectFromElements, objectFromSamples, ScreeningSession, type ScreeningObject, type WindowSettings } from './engine.js';
 import type { SampleTable } from '../propagation/sampledTrajectory.js';
 import type { Instant } from '../time/instant.js';
@@ -64,7 +64,7 @@ export class ScreeningChunk {
   private grids = new Map<string, StateGrid>();
 
   constructor(
-    elementSets: readonly ElementSet[],
+    elementSets: readonly OrbitElements[],
     readonly settings: WindowSettings,
     private readonly control: Int32Array,
     sampled: readonly SampledPrimary[] = [],

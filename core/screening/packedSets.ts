@@ -1,4 +1,4 @@
-import type { ElementSet, SourceRef } from '../elements/elementSet.js';
+import type { OrbitElements } from '../elements/elementSet.js';
 import type { Instant } from '../time/instant.js';
 
 /**
@@ -13,9 +13,8 @@ export interface PackedSets {
 }
 
 const FIELDS = 14;
-const WORKER_SOURCE: SourceRef = { file: '(screening worker)', line: 0, format: 'SYNTHETIC' };
 
-export function packSets(sets: readonly ElementSet[]): PackedSets {
+export function packSets(sets: readonly OrbitElements[]): PackedSets {
   const values = new Float64Array(sets.length * FIELDS);
   sets.forEach((s, i) => {
     const o = i * FIELDS;
@@ -37,14 +36,12 @@ export function packSets(sets: readonly ElementSet[]): PackedSets {
   return { ids: sets.map((s) => s.objectId), classifications: sets.map((s) => s.classification), values };
 }
 
-export function unpackSets(p: PackedSets): ElementSet[] {
+export function unpackSets(p: PackedSets): OrbitElements[] {
   const v = p.values;
   return p.ids.map((objectId, i) => {
     const o = i * FIELDS;
     return {
       objectId,
-      name: null,
-      intlDesignator: null,
       classification: p.classifications[i] ?? 'U',
       epoch: v[o]! as Instant,
       meanMotionRevPerDay: v[o + 1]!,
@@ -59,7 +56,6 @@ export function unpackSets(p: PackedSets): ElementSet[] {
       elementSetNo: v[o + 10]!,
       revAtEpoch: v[o + 11]!,
       ephemerisType: v[o + 12]!,
-      source: WORKER_SOURCE,
     };
   });
 }

@@ -2,7 +2,7 @@ import { wrap, releaseProxy, type Remote } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { availableParallelism } from 'node:os';
 import type { Worker } from 'node:worker_threads';
-import type { ElementSet } from '../elements/elementSet.js';
+import type { OrbitElements } from '../elements/elementSet.js';
 import { KeepclearError } from '../errors.js';
 import { startWorkers, stopWorkers } from '../workers/entry.js';
 import { packSets } from './packedSets.js';
@@ -63,7 +63,7 @@ export interface ScreeningOutcome {
  * computed once into shared memory. Results are sorted, so they do not depend on the worker count.
  */
 export async function runScreening(
-  elementSets: readonly ElementSet[],
+  elementSets: readonly OrbitElements[],
   settings: ScreeningSettings,
   options: RunOptions = {},
 ): Promise<ScreeningOutcome> {
@@ -178,7 +178,7 @@ async function takeWorkers(n: number): Promise<Worker[]> {
 
 async function inWorkers(
   n: number,
-  elementSets: readonly ElementSet[],
+  elementSets: readonly OrbitElements[],
   sampled: readonly SampledPrimary[],
   win: WindowSettings,
   control: Int32Array,

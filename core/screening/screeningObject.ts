@@ -1,5 +1,5 @@
 import type { Instant } from '../time/instant.js';
-import type { ElementSet } from '../elements/elementSet.js';
+import type { OrbitElements } from '../elements/elementSet.js';
 import type { Trajectory } from '../propagation/trajectory.js';
 import { Sgp4Trajectory } from '../propagation/sgp4.js';
 import { SampledTrajectory, type SampleTable } from '../propagation/sampledTrajectory.js';
@@ -24,7 +24,7 @@ export interface ScreeningObject {
   readonly radiusBandKm?: readonly [number, number];
 }
 
-export function objectFromElements(es: ElementSet): ScreeningObject {
+export function objectFromElements(es: OrbitElements): ScreeningObject {
   return {
     id: es.objectId,
     trajectory: new Sgp4Trajectory(es),

@@ -9,7 +9,7 @@
  *     ends there: ScreeningSession.grid).
  * Objects whose propagation fails at the window start are flagged and left out.
  */
-import type { ElementSet } from '../../elements/elementSet.js';
+import type { OrbitElements } from '../../elements/elementSet.js';
 import type { Encounter } from '../../events/index.js';
 import { objectFromElements, ScreeningSession, type ScreeningObject, type WindowSettings } from '../engine.js';
 import { padClipMerge } from '../regions.js';
@@ -57,7 +57,7 @@ export class AllVsAllChunk {
   private readonly extra = { refinedPairs: 0, regions: 0, shortLived: 0 };
 
   constructor(
-    elementSets: readonly ElementSet[],
+    elementSets: readonly OrbitElements[],
     readonly settings: WindowSettings,
     private readonly control: Int32Array,
     shard?: ShardSpec,

@@ -7,7 +7,7 @@
  */
 import { wrap, releaseProxy, type Remote } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
-import type { ElementSet } from '../../elements/elementSet.js';
+import type { OrbitElements } from '../../elements/elementSet.js';
 import { startWorkers, stopWorkers } from '../../workers/entry.js';
 import { packSets } from '../packedSets.js';
 import type { ChunkResult } from '../chunk.js';
@@ -29,7 +29,7 @@ interface Side {
  * of `elementSets.length` for the index, the second half for refinement.
  */
 export async function runAllVsAll(
-  elementSets: readonly ElementSet[],
+  elementSets: readonly OrbitElements[],
   win: WindowSettings,
   control: Int32Array,
   nWorkers: number,

@@ -1,6 +1,6 @@
 import { makeSatrec } from '../../propagation/sgp4.js';
 import type { Instant } from '../../time/instant.js';
-import { drawAgeDays, epochBefore, SYNTHETIC_SOURCE, type Draft } from '../draft.js';
+import { drawAgeDays, epochBefore, type Draft } from '../draft.js';
 import { RE } from '../j2.js';
 import { meanMotionRevPerDay } from '../kepler.js';
 import type { Rng } from '../random.js';
@@ -30,11 +30,10 @@ export const SHELLS: readonly Shell[] = [
 /** SGP4's own secular rates (rad/min) of a nominal shell member, so phasing survives epoch shifts. */
 function sgp4Rates(a: number, i: number, epoch: Instant): { mdot: number; nodedot: number; argpdot: number } {
   const rec = makeSatrec({
-    objectId: '0', name: null, intlDesignator: null, classification: 'U', epoch,
+    objectId: '0', classification: 'U', epoch,
     meanMotionRevPerDay: meanMotionRevPerDay(a), eccentricity: 1e-4, inclinationDeg: i / DEG,
     raanDeg: 0, argPerigeeDeg: 0, meanAnomalyDeg: 0, bstar: 0, meanMotionDot: 0,
     meanMotionDdot: 0, elementSetNo: 1, revAtEpoch: 0, ephemerisType: 0,
-    source: { ...SYNTHETIC_SOURCE, line: 0 },
   });
   return { mdot: rec.mdot, nodedot: rec.nodedot, argpdot: rec.argpdot };
 }
