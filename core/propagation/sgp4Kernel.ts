@@ -94,9 +94,15 @@ const znl = 1.5835218e-4;
 const zel = 0.0549;
 
 // Outputs of dspace and dpper: module-level scratch instead of result objects. Workers are
-// single-threaded and neither function re-enters, so one set serves every call.
-let dsEm = 0, dsArgpm = 0, dsInclm = 0, dsMm = 0, dsNodem = 0, dsNm = 0;
-let dpEp = 0, dpInclp = 0, dpNodep = 0, dpArgpp = 0, dpMp = 0;
+// single-threaded and neither function re-enters, so one set serves every call. Float64Arrays,
+// not module-level `let`s: those hold boxed numbers, and merging them with sgp4Into's unboxed
+// doubles after the deep-space branches made the optimised code box the near-Earth values too
+// once a deep-space record had gone through it: ~11 heap numbers (176 bytes) and twice the
+// time per near-Earth call (measured: 0.45 → 0.96 µs; V8's sampling heap profiler).
+const DS = new Float64Array(6);
+const DS_EM = 0, DS_ARGPM = 1, DS_INCLM = 2, DS_MM = 3, DS_NODEM = 4, DS_NM = 5;
+const DP = new Float64Array(5);
+const DP_EP = 0, DP_INCLP = 1, DP_NODEP = 2, DP_ARGPP = 3, DP_MP = 4;
 
 /**
  * SGP4 of an initialised record at `tsince` minutes from epoch. On success writes position
@@ -170,12 +176,12 @@ export function sgp4Into(satrec: SatRec, tsince: number, pv: Float64Array, off: 
   const deep = satrec.method === 'd';
   if (deep) {
     dspace(satrec, satrec.t, satrec.t, em, argpm, inclm, mm, nodem, nm);
-    em = dsEm;
-    argpm = dsArgpm;
-    inclm = dsInclm;
-    mm = dsMm;
-    nodem = dsNodem;
-    nm = dsNm;
+    em = DS[DS_EM]!;
+    argpm = DS[DS_ARGPM]!;
+    inclm = DS[DS_INCLM]!;
+    mm = DS[DS_MM]!;
+    nodem = DS[DS_NODEM]!;
+    nm = DS[DS_NM]!;
   }
   if (nm <= 0.0) {
     satrec.error = ERR_MEAN_MOTION;
@@ -214,11 +220,11 @@ export function sgp4Into(satrec: SatRec, tsince: number, pv: Float64Array, off: 
   cosip = cosim;
   if (deep) {
     dpper(satrec, ep, xincp, nodep, argpp, mp, satrec.operationmode);
-    ep = dpEp;
-    nodep = dpNodep;
-    argpp = dpArgpp;
-    mp = dpMp;
-    xincp = dpInclp;
+    ep = DP[DP_EP]!;
+    nodep = DP[DP_NODEP]!;
+    argpp = DP[DP_ARGPP]!;
+    mp = DP[DP_MP]!;
+    xincp = DP[DP_INCLP]!;
     if (xincp < 0.0) {
       xincp = -xincp;
       nodep += pi;
@@ -342,7 +348,7 @@ export function sgp4Into(satrec: SatRec, tsince: number, pv: Float64Array, off: 
 
 /**
  * dspace.js: deep-space secular and resonance contributions to the mean elements. Inputs as
- * satellite.js's sgp4 passes them (t and tc both satrec.t); outputs into the ds* scratch.
+ * satellite.js's sgp4 passes them (t and tc both satrec.t); outputs into DS.
  * atime, xli, xni: the integrator's last step, read from and written back to the record.
  */
 function dspace(
@@ -473,17 +479,17 @@ function dspace(
     }
     nm = no + dndt;
   }
-  dsEm = em;
-  dsArgpm = argpm;
-  dsInclm = inclm;
-  dsMm = mm;
-  dsNodem = nodem;
-  dsNm = nm;
+  DS[DS_EM] = em;
+  DS[DS_ARGPM] = argpm;
+  DS[DS_INCLM] = inclm;
+  DS[DS_MM] = mm;
+  DS[DS_NODEM] = nodem;
+  DS[DS_NM] = nm;
 }
 
 /**
  * dpper.js with init = 'n' (the only way sgp4 calls it): lunar-solar long-period periodics.
- * Inputs as satellite.js's sgp4 passes them; outputs into the dp* scratch.
+ * Inputs as satellite.js's sgp4 passes them; outputs into DP.
  */
 function dpper(
   satrec: SatRec,
@@ -597,9 +603,9 @@ function dpper(
     mp += pl;
     argpp = xls - mp - cosip * nodep;
   }
-  dpEp = ep;
-  dpInclp = inclp;
-  dpNodep = nodep;
-  dpArgpp = argpp;
-  dpMp = mp;
+  DP[DP_EP] = ep;
+  DP[DP_INCLP] = inclp;
+  DP[DP_NODEP] = nodep;
+  DP[DP_ARGPP] = argpp;
+  DP[DP_MP] = mp;
 }
