@@ -19,6 +19,7 @@ import { fileURLToPath } from 'node:url';
 import { Sgp4Trajectory } from '../core/propagation/sgp4.js';
 import { formatOmmJson } from '../core/formats/omm/index.js';
 import { runScreening } from '../core/screening/run.js';
+import { quietParent } from './command.js';
 import type { ElementSet } from '../core/elements/elementSet.js';
 import type { Instant } from '../core/time/instant.js';
 
@@ -91,7 +92,7 @@ async function engine(sets: readonly ElementSet[], start: Instant, days: number,
 }
 
 /** `keepclear import` then `keepclear screen --all` as spawned processes, timed by GNU time. */
-function wholeCommand(sets: readonly ElementSet[], start: Instant, days: number) {
+async function wholeCommand(sets: readonly ElementSet[], start: Instant, days: number) {
   const bin = join(ROOT, 'bin', 'keepclear.js');
   if (!existsSync(join(ROOT, 'dist', 'cli', 'main.js'))) return { skipped: 'dist/ is not built (npm run build:cli)' } as const;
   const dir = mkdtempSync(join(tmpdir(), 'keepclear-bench-all-'));
@@ -111,7 +112,9 @@ function wholeCommand(sets: readonly ElementSet[], start: Instant, days: number)
       const phases = lines.filter((l) => l.startsWith('keepclear phase ')).map((l) => l.slice('keepclear phase '.length));
       return { wallS: wall!, peakBytes: kb! * 1024, cpuS: user! + sys!, phases };
     };
+    await quietParent();
     const imp = timed(['import', cat, '--db', db]);
+    await quietParent();
     const scr = timed(['screen', '--all', '--db', db, '--start', new Date(start).toISOString(), '--days', String(days), '--threshold-km', '5', '--json', out]);
     const events = (JSON.parse(readFileSync(out, 'utf8')) as { events: unknown[] }).events.length;
     return { imp, scr, events } as const;
@@ -151,8 +154,10 @@ export async function benchAllVsAll(label: string, sets: readonly ElementSet[], 
   const rows: AllVsAllRow[] = [
     { name: `${label}: engine`, wallS: e.wallS, cpuS: null, targetS: TARGET_S, peakRssMiB: e.peak / 2 ** 20, events: e.r.encounters.length, naiveS },
   ];
+  // The engine's encounters go before the command is timed (this process should be idle then).
+  e.r.encounters.length = 0;
   // BENCH_ENGINE_ONLY=1 skips the whole command (for 100,000 objects it stores ~1.5 M events).
-  const w = process.env['BENCH_ENGINE_ONLY'] === '1' ? ({ skipped: 'BENCH_ENGINE_ONLY=1' } as const) : wholeCommand(sets, start, days);
+  const w = process.env['BENCH_ENGINE_ONLY'] === '1' ? ({ skipped: 'BENCH_ENGINE_ONLY=1' } as const) : await wholeCommand(sets, start, days);
   if ('skipped' in w) console.log(`  whole command: skipped (${w.skipped})`);
   else {
     rows.push({ name: `${label}: keepclear screen --all`, wallS: w.scr.wallS, cpuS: w.scr.cpuS, targetS: TARGET_S, peakRssMiB: w.scr.peakBytes / 2 ** 20, events: w.events, naiveS });
