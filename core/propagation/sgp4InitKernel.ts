@@ -11,7 +11,7 @@
  * plus the garbage it makes as the largest per-object cost. Here one class declares every field
  * in one order (one hidden class) and initl's results stay locals. Deep-space orbits are handed
  * to satellite.js's sgp4init unchanged (the decision is taken exactly where satellite.js takes it,
- * on the same values, before anything is written).
+ * on the same values, before anything is written), and its record is copied into the class.
  */
 import { constants, gstime, type SatRec } from 'satellite.js';
 import type { SatRecInit } from '../../node_modules/satellite.js/dist/propagation/SatRec.js';
@@ -65,9 +65,9 @@ const scratch = new Float64Array(6);
 
 /**
  * Initialises `rec`, whose input fields (satnum .. jdsatepoch, as satellite.js's SatRecInit) are
- * set, for SGP4 — sgp4init(rec, {opsmode, epoch, x* = rec's fields}). Returns `rec` for a
- * near-Earth orbit; for a deep-space one, a plain record built from the same inputs and
- * initialised by satellite.js's own sgp4init. `epoch`: days from 1949 Dec 31 0h.
+ * set, for SGP4 — sgp4init(rec, {opsmode, epoch, x* = rec's fields}), and returns it. A
+ * near-Earth orbit is initialised here; a deep-space one in a plain record built from the same
+ * inputs by satellite.js's own sgp4init, then copied into `rec`. `epoch`: days from 1949 Dec 31 0h.
  * Error codes are satellite.js's: sgp4init itself sets none (its code 5 check is commented
  * out), the closing sgp4 at t = 0 may.
  */
@@ -220,7 +220,7 @@ export function sgp4InitRecord(rec: Sgp4Record, opsmode: 'a' | 'i', epoch: numbe
   return rec;
 }
 
-/** satellite.js's path as makeSatrec took it before this kernel: a plain record, its sgp4init. */
+/** satellite.js's path as makeSatrec took it before this kernel: a plain record, its sgp4init; then copied into `rec`. */
 function deepSpace(rec: Sgp4Record, opsmode: 'a' | 'i', epoch: number): SatRec {
   const plain: SatRecInit = {
     error: 0,
@@ -250,12 +250,11 @@ function deepSpace(rec: Sgp4Record, opsmode: 'a' | 'i', epoch: number): SatRec {
     xno: plain.no,
     xnodeo: plain.nodeo,
   });
-  // Back into `rec`, so that every record SGP4 runs on has the one hidden class. Handed on as
-  // satellite.js's plain object, the deep-space records made sgp4Into's record reads
-  // megamorphic for every record: each read of a number field then copied it into a new heap
-  // number (~160 bytes per near-Earth call, measured with V8's sampling heap profiler), where
-  // with one class the reads are plain field loads and allocate nothing. The values are the
-  // same doubles; every field of the plain record is one the class declares.
+  // Copied back into `rec`, so that every record sgp4Into reads has the one hidden class and its
+  // reads of the record stay monomorphic (satellite.js's plain records are shaped by their own
+  // property additions). The values are the same doubles, and every field of the plain record
+  // is one the class declares (test/sgp4-init-kernel.test.ts). Its own effect on speed was not
+  // told apart from the noise; it went in with the unboxed deep-space outputs of sgp4Kernel.ts.
   Object.assign(rec, plain);
   return rec;
 }
