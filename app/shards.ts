@@ -15,7 +15,7 @@ import { shardText, type ShardSpec } from '../core/screening/spatial/shard.js';
 import type { FlaggedObject, ScreeningSettings, ScreeningVolume } from '../core/screening/types.js';
 import { encounterWith, type ConjunctionEvent, type Encounter, type StateArray } from '../core/events/index.js';
 import {
-  catalogFingerprint, createRun, eventsOfRun, finishRun, getRun, inTransaction, latestElementSets,
+  createRun, eventsOfRun, finishRun, fingerprintOfCatalogue, getRun, inTransaction, readCatalogue,
   type KeepclearDb, type RunRecord,
 } from '../db/index.js';
 import { eventToJson } from './eventJson.js';
@@ -46,11 +46,14 @@ export const shardRunId = (s: ShardSpec): string => `shard-${s.index}-of-${s.cou
 export async function screenShard(db: KeepclearDb, req: ShardRequest): Promise<ShardResult> {
   const { settings } = req;
   if (settings.primaries !== 'all') throw new KeepclearError('BAD_ARGUMENT', 'a shard (--shard K/N) needs an all-vs-all run (--all)');
-  const sets = latestElementSets(db);
+  // The orbits and their fingerprint from one snapshot: an import landing between two reads would
+  // give the shard a fingerprint of sets it did not screen, and merge compares them.
+  const catalogue = readCatalogue(db);
+  const sets = catalogue.sets;
   if (sets.length === 0) {
     throw new KeepclearError('NOT_FOUND', 'the database holds no element sets; import a catalogue first (keepclear import FILE)');
   }
-  const fingerprint = catalogFingerprint(db);
+  const fingerprint = fingerprintOfCatalogue(db, catalogue);
   const outcome = await runScreening(sets, settings, {
     ...(req.workers !== undefined ? { workers: req.workers } : {}),
     ...(req.onProgress ? { onProgress: req.onProgress } : {}),
